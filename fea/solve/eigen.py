@@ -1,0 +1,292 @@
+"""Linear (elastic) buckling: ``K phi = lam G phi``.
+
+``K`` is the elastic stiffness with springs and foundation, less the
+geometric stiffness of the permanent loads; ``G`` is the geometric stiffness
+of the variable loads at load factor 1 (including the destabilising stiffness
+of variable leaning loads).  The lowest positive ``lam`` are sought.
+
+The generalised problem is solved as ``G phi = mu K phi`` with ``mu = 1/lam``,
+taking the largest positive ``mu``: ``K`` must be positive definite, which is
+exactly the condition that the column is stable under its permanent loads and
+is not a mechanism.
+
+Two solvers: dense LAPACK (``scipy.linalg.eigh`` with an index subset) for
+small systems, and a banded Cholesky factor of ``K`` driving ARPACK
+(``scipy.sparse.linalg.eigsh``) on ``L^-1 G L^-T`` for large ones.  The switch
+size was measured (``benchmarks/bench_eigen.py``).
+"""
+
+from __future__ import annotations
+
+import logging
+import math
+
+import numpy as np
+import scipy.linalg as sla
+from scipy.sparse import csr_matrix
+from scipy.sparse.linalg import LinearOperator, eigsh
+
+from ..assemble import Assembled, assemble
+from ..errors import ModelError, SolverError
+from ..mesh import Mesh, build_mesh
+from ..model import Column
+from ..results import K_AXIAL_RATIO_MIN, K_ENERGY_SHARE_MIN, BucklingResult, SegmentBuckling
+
+__all__ = ["buckling", "solve_assembled", "DENSE_MAX_DOF", "DEFAULT_TOL", "MAX_LEVEL"]
+
+logger = logging.getLogger(__name__)
+
+#: Largest reduced system solved with dense LAPACK (measured crossover).
+DENSE_MAX_DOF = 400
+DEFAULT_TOL = 1e-6
+MAX_LEVEL = 9
+#: Convergence order of the lowest load factor with cubic elements.
+ORDER = 4
+
+
+def _cholesky(K: np.ndarray) -> np.ndarray | None:
+    try:
+        return sla.cholesky(K, lower=True, check_finite=False)
+    except sla.LinAlgError:
+        return None
+
+
+def _diagnose_mechanism(column: Column, mesh: Mesh, asm: Assembled) -> str:
+    """Which kind of restraint is missing: rigid translation or rotation."""
+    n = asm.n_full
+    x = mesh.x
+    T = np.zeros(n)
+    T[0::2] = 1.0
+    R = np.zeros(n)
+    R[0::2] = x
+    R[1::2] = 1.0
+    Rm = np.stack([T, R], axis=1)[asm.free]
+    E = Rm.T @ asm.K0 @ Rm
+    scale = np.trace(asm.K0) / asm.K0.shape[0] * max(1.0, x[-1] ** 2)
+    w, v = np.linalg.eigh(E)
+    if w[0] > 1e-10 * scale:
+        return "the column is a mechanism (too little restraint)"
+    a, b = v[:, 0]
+    if abs(b) < 1e-9 * max(abs(a), 1e-300):
+        return "no lateral restraint: the column can slide sideways as a rigid body; restrain it laterally"
+    pivot = -a / b
+    if -1e-9 * x[-1] <= pivot <= x[-1] * (1 + 1e-9):
+        return (f"the column can rotate as a rigid body about the lateral restraint at {pivot:.4g} m; "
+                "add a second lateral restraint or a rotational restraint")
+    return "no lateral restraint: the column can move as a rigid body; add lateral or rotational restraint"
+
+
+def _eig_dense(K: np.ndarray, G: np.ndarray, n_modes: int) -> tuple[np.ndarray, np.ndarray]:
+    n = K.shape[0]
+    m = min(n_modes, n)
+    mu, vec = sla.eigh(G, K, subset_by_index=[n - m, n - 1], check_finite=False)
+    return mu[::-1], vec[:, ::-1]
+
+
+def _to_banded_lower(K: np.ndarray, bw: int) -> np.ndarray:
+    n = K.shape[0]
+    ab = np.zeros((bw + 1, n))
+    for d in range(bw + 1):
+        ab[d, : n - d] = np.diagonal(K, -d)
+    return ab
+
+
+def _bandwidth(K: np.ndarray) -> int:
+    rows, cols = np.nonzero(K)
+    return int(np.max(np.abs(rows - cols))) if rows.size else 0
+
+
+def _eig_sparse(K: np.ndarray, G: np.ndarray, n_modes: int) -> tuple[np.ndarray, np.ndarray]:
+    n = K.shape[0]
+    bw = max(_bandwidth(K), _bandwidth(G))
+    cb = sla.cholesky_banded(_to_banded_lower(K, bw), lower=True, check_finite=False)
+    ub = _upper_from_lower(cb, bw)
+
+    Gs = csr_matrix(G)
+
+    def matvec(v: np.ndarray) -> np.ndarray:
+        # y = L^-1 G L^-T v
+        z = sla.solve_banded((0, bw), ub, v, check_finite=False)
+        z = Gs @ z
+        return sla.solve_banded((bw, 0), cb, z, check_finite=False)
+
+    op = LinearOperator((n, n), matvec=matvec, dtype=float)
+    m = min(n_modes, n - 2)
+    mu, y = eigsh(op, k=m, which="LA", tol=1e-13, ncv=min(n, max(2 * m + 1, 20)))
+    order = np.argsort(mu)[::-1]
+    mu, y = mu[order], y[:, order]
+    vec = sla.solve_banded((0, bw), ub, y, check_finite=False)
+    return mu, vec
+
+
+def _upper_from_lower(cb: np.ndarray, bw: int) -> np.ndarray:
+    """Banded storage of L^T (upper) from banded storage of L (lower)."""
+    n = cb.shape[1]
+    ub = np.zeros_like(cb)
+    for d in range(bw + 1):
+        ub[bw - d, d:] = cb[d, : n - d]
+    return ub
+
+
+def solve_assembled(asm: Assembled, n_modes: int, method: str = "auto") -> tuple[np.ndarray, np.ndarray, str]:
+    """Largest ``mu`` of ``G phi = mu K phi`` (``K`` positive definite).
+
+    Returns
+    -------
+    lam : (m,) ascending positive load factors
+    vec : (n_red, m) eigenvectors in the reduced numbering
+    solver : "dense" or "sparse"
+    """
+    n = asm.K.shape[0]
+    if method == "auto":
+        method = "dense" if n <= DENSE_MAX_DOF else "sparse"
+    if method == "dense":
+        mu, vec = _eig_dense(asm.K, asm.G, n_modes)
+    else:
+        mu, vec = _eig_sparse(asm.K, asm.G, n_modes)
+    scale = np.max(np.abs(mu)) if mu.size else 0.0
+    keep = mu > 1e-12 * max(scale, 1e-300)
+    mu, vec = mu[keep], vec[:, keep]
+    return 1.0 / mu, vec, method
+
+
+def _check_solvable(column: Column, mesh: Mesh, asm: Assembled) -> None:
+    if asm.K0.shape[0] == 0:
+        raise ModelError("restraints", "every degree of freedom is rigidly restrained; nothing can buckle")
+    if _cholesky(asm.K0) is None:
+        raise ModelError("restraints", _diagnose_mechanism(column, mesh, asm))
+    if not column.has_variable_load or not np.any(asm.G):
+        if np.any(mesh.N_perm > 0):
+            raise ModelError("loads", "there is no variable load to scale: every load is permanent")
+        raise ModelError("loads", "no compression anywhere in the column: buckling is not possible")
+    if np.all(mesh.N_var <= 0) and not np.any(mesh.lean_var):
+        raise ModelError("loads", "no compression anywhere in the column under the variable loads: "
+                                  "buckling is not possible")
+    if _cholesky(asm.K) is None:
+        raise ModelError("loads", "the permanent loads alone exceed the elastic critical load: "
+                                  "the column buckles before any variable load is applied")
+
+
+def buckling(column: Column, n_modes: int = 3, tol: float = DEFAULT_TOL, method: str = "auto",
+             axis: str = "", min_level: int = 1) -> BucklingResult:
+    """Lowest elastic critical load factors of ``column`` with automatic meshing.
+
+    The mesh is refined by doubling every interval until the estimated
+    relative error of the lowest load factor is below ``tol``.  The estimate is
+    the Richardson estimate ``|lam_h - lam_h/2| / (2**4 - 1)`` once two
+    successive differences fall at the expected fourth-order rate, and the plain
+    difference before that.
+
+    Parameters
+    ----------
+    column : the column
+    n_modes : number of modes wanted (>= 1)
+    tol : relative tolerance on the lowest load factor (> 0)
+    method : "auto", "dense" or "sparse"
+    axis : label of the bending plane, carried into the result
+
+    Returns
+    -------
+    BucklingResult
+
+    Raises
+    ------
+    ModelError
+        Mechanism, no compression, permanent load above the critical load.
+    SolverError
+        No positive load factor found.
+    """
+    if not isinstance(n_modes, int) or n_modes < 1:
+        raise ModelError("modes", f"number of modes must be a whole number >= 1, got {n_modes!r}")
+    if not (isinstance(tol, float) or isinstance(tol, int)) or not (0 < tol < 0.1):
+        raise ModelError("tolerance", f"must be between 0 and 0.1, got {tol!r}")
+    if method not in ("auto", "dense", "sparse"):
+        raise ModelError("method", f"expected 'auto', 'dense' or 'sparse', got {method!r}")
+
+    history: list[float] = []
+    diffs: list[float] = []
+    est = math.inf
+    mesh = asm = None
+    lam = vec = None
+    solver = ""
+    for level in range(MAX_LEVEL + 1):
+        mesh = build_mesh(column, level)
+        asm = assemble(mesh)
+        if level == 0:
+            _check_solvable(column, mesh, asm)
+        lam, vec, solver = solve_assembled(asm, n_modes, method)
+        if lam.size == 0:
+            raise SolverError("no positive load factor found: the variable loads do not cause buckling")
+        history.append(float(lam[0]))
+        if level >= 1:
+            d = abs(history[-1] - history[-2])
+            diffs.append(d)
+            rate_ok = len(diffs) >= 2 and diffs[-2] > 0 and diffs[-2] / max(d, 1e-300) > 2 ** (ORDER - 1)
+            est = (d / (2**ORDER - 1) if rate_ok else d) / history[-1]
+            if level >= min_level and est <= tol:
+                break
+    converged = est <= tol
+    msg = (f"lowest load factor converged: estimated relative discretisation error {est:.1e} <= {tol:.0e}"
+           if converged else
+           f"mesh refinement stopped at level {MAX_LEVEL}: estimated relative error {est:.1e} > {tol:.0e}")
+    return _package(column, mesh, asm, lam, vec, solver, np.array(history), est, tol, converged, msg, axis)
+
+
+def _package(column, mesh, asm, lam, vec, solver, history, est, tol, converged, msg, axis) -> BucklingResult:
+    n_modes = lam.size
+    full = np.zeros((asm.n_full, n_modes))
+    full[asm.free] = vec
+    w = full[0::2].T.copy()
+    th = full[1::2].T.copy()
+    for i in range(n_modes):
+        j = int(np.argmax(np.abs(w[i])))
+        s = w[i, j] if abs(w[i, j]) > 0 else th[i, int(np.argmax(np.abs(th[i])))]
+        w[i] /= s
+        th[i] /= s
+
+    # bending energy per element and per segment
+    idx = 2 * np.arange(mesh.n_el)[:, None] + np.arange(4)[None, :]
+    ue = full[idx]  # (n_el, 4, n_modes)
+    e_el = 0.5 * np.einsum("eim,eij,ejm->em", ue, asm.k_bending, ue)
+    n_seg = len(column.segments)
+    e_seg = np.zeros((n_modes, n_seg))
+    np.add.at(e_seg.T, mesh.seg, e_el)
+    tot = e_seg.sum(axis=1, keepdims=True)
+    shares = e_seg / np.where(tot > 0, tot, 1.0)
+
+    lam1 = float(lam[0])
+    bounds = column.segment_bounds()
+    tolx = 1e-9 * column.height
+    n_all = []
+    segs = []
+    for i, (s, (a, b)) in enumerate(zip(column.segments, bounds)):
+        xs = np.array([a + tolx])
+        Np = float(column.axial_force(xs, permanent=True)[0])
+        Nv = float(column.axial_force(xs, permanent=False)[0])
+        n_all.append((Np, Nv))
+    n_cr_all = [Np + lam1 * Nv for Np, Nv in n_all]
+    n_max = max(max(n_cr_all), 0.0)
+    for i, (s, (a, b)) in enumerate(zip(column.segments, bounds)):
+        Np, Nv = n_all[i]
+        Ncr = n_cr_all[i]
+        I_ref = s.I_ref
+        if Ncr > 0:
+            K = math.pi / s.length * math.sqrt(s.E * I_ref / Ncr)
+        else:
+            K = None
+        note = ""
+        if K is None:
+            note = "not in compression"
+        elif shares[0, i] < K_ENERGY_SHARE_MIN:
+            note = f"takes little part in the mode ({100 * shares[0, i]:.2g}% of the bending energy)"
+        elif Ncr < K_AXIAL_RATIO_MIN * n_max:
+            note = f"carries little axial force ({100 * Ncr / n_max:.2g}% of the largest)"
+        segs.append(SegmentBuckling(index=i, bottom=a, top=b, length=s.length, axial_force=Np + Nv,
+                                    critical_axial_force=Ncr, I_ref=I_ref, E=s.E, effective_length_factor=K,
+                                    energy_share=float(shares[0, i]), meaningful=(K is not None and not note),
+                                    note=note))
+    logger.debug("buckling: levels %s, est %.2e", history, est)
+    return BucklingResult(load_factors=np.asarray(lam, dtype=float), heights=mesh.x.copy(), modes=w, rotations=th,
+                          segments=tuple(segs), energy_shares=shares, n_elements=mesh.n_el,
+                          refinement_levels=history, discretisation_error=float(est), tolerance=float(tol),
+                          converged=bool(converged), solver=solver, message=msg, axis=axis)
