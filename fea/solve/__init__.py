@@ -1,0 +1,1 @@
+"""Solvers: elastic buckling (``eigen``) and nonlinear path following."""
