@@ -44,11 +44,14 @@ MAX_LEVEL = 9
 ORDER = 4
 
 
-def _cholesky(K: np.ndarray) -> np.ndarray | None:
+def _cholesky(K: np.ndarray, rcond: float = 1e-13) -> np.ndarray | None:
+    """Cholesky factor, or None when ``K`` is not (numerically) positive definite."""
     try:
-        return sla.cholesky(K, lower=True, check_finite=False)
+        C = sla.cholesky(K, lower=True, check_finite=False)
     except sla.LinAlgError:
         return None
+    d = np.diagonal(C) ** 2
+    return C if d.min() > rcond * np.max(np.diagonal(K)) else None
 
 
 def _diagnose_mechanism(column: Column, mesh: Mesh, asm: Assembled) -> str:
@@ -70,9 +73,12 @@ def _diagnose_mechanism(column: Column, mesh: Mesh, asm: Assembled) -> str:
     if abs(b) < 1e-9 * max(abs(a), 1e-300):
         return "no lateral restraint: the column can slide sideways as a rigid body; restrain it laterally"
     pivot = -a / b
-    if -1e-9 * x[-1] <= pivot <= x[-1] * (1 + 1e-9):
-        return (f"the column can rotate as a rigid body about the lateral restraint at {pivot:.4g} m; "
-                "add a second lateral restraint or a rotational restraint")
+    supports = [r.at for r in column.restraints if r.lateral > 0]
+    if supports:
+        near = min(supports, key=lambda s: abs(s - pivot))
+        if abs(near - pivot) <= 1e-6 * x[-1]:
+            return (f"the column can rotate as a rigid body about the lateral restraint at {near:.4g} m; "
+                    "add a second lateral restraint or a rotational restraint")
     return "no lateral restraint: the column can move as a rigid body; add lateral or rotational restraint"
 
 

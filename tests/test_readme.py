@@ -1,0 +1,32 @@
+"""The README's Python example runs as written, and its quick start names the test command CI runs."""
+
+from __future__ import annotations
+
+import re
+import subprocess
+import sys
+from pathlib import Path
+
+ROOT = Path(__file__).resolve().parents[1]
+
+
+def _python_blocks() -> list[str]:
+    text = (ROOT / "README.md").read_text(encoding="utf-8")
+    return re.findall(r"```python\n(.*?)```", text, flags=re.S)
+
+
+def test_readme_python_example_runs():
+    blocks = _python_blocks()
+    assert blocks, "README has no python example"
+    out = subprocess.run([sys.executable, "-c", blocks[0]], cwd=ROOT, capture_output=True, text=True, timeout=120)
+    assert out.returncode == 0, out.stderr
+    assert "lowest load factor" in out.stdout
+    assert re.search(r"segment 1: .* K = \d+\.\d{3}", out.stdout)
+
+
+def test_ci_runs_the_readme_test_command():
+    readme = (ROOT / "README.md").read_text(encoding="utf-8")
+    ci = (ROOT / ".ci" / "run").read_text(encoding="utf-8")
+    m = re.search(r'pip install -e "\.\[test\]" && (.+)', readme)
+    assert m, "README quick start has no test command"
+    assert m.group(1).strip().rstrip("`").strip() in ci
