@@ -8,7 +8,8 @@ carries the deformation.
 
 * Plane: x lateral, y height; 3 DOFs per node ``(u_x, u_y, theta)``, DOF index
   ``3 * node + k``; theta counter-clockwise.
-* Local deformations: chord elongation ``u_l = (l^2 - L^2) / (l + L)`` and end
+* Local deformations: chord elongation ``u_l = (l^2 - L^2) / (l + L)`` (numerator
+  formed from the displacement differences, free of cancellation) and end
   rotations relative to the chord ``theta_i,l = theta_i - (beta - beta_0)``
   (wrapped to (-pi, pi]), with ``L``, ``beta_0`` the initial and ``l``, ``beta``
   the current chord length and angle.
@@ -212,8 +213,10 @@ def local_deformations(model: BeamModel, u: np.ndarray):
         Cosine and sine of the current chord angle.
     """
     ue = u[model.edofs]
-    dx = model.L0 * model.c0 + ue[:, 3] - ue[:, 0]
-    dy = model.L0 * model.s0 + ue[:, 4] - ue[:, 1]
+    dux = ue[:, 3] - ue[:, 0]
+    duy = ue[:, 4] - ue[:, 1]
+    dx = model.L0 * model.c0 + dux
+    dy = model.L0 * model.s0 + duy
     ln = np.hypot(dx, dy)
     c = dx / ln
     s = dy / ln
@@ -223,7 +226,8 @@ def local_deformations(model: BeamModel, u: np.ndarray):
     t2 = ue[:, 5] - alpha
     t1 = np.arctan2(np.sin(t1), np.cos(t1))
     t2 = np.arctan2(np.sin(t2), np.cos(t2))
-    ul = (ln * ln - model.L0 * model.L0) / (ln + model.L0)
+    # l^2 - L^2 from the displacement differences: no cancellation for small elongations
+    ul = (2.0 * model.L0 * (model.c0 * dux + model.s0 * duy) + dux * dux + duy * duy) / (ln + model.L0)
     return ul, t1, t2, ln, c, s
 
 

@@ -474,11 +474,18 @@ def trace_path(xy0, conn, section, F_ref, *, fixed=(), F_const=None, K_spring=No
     peak_done = False
     limit = None  # (lambda, accuracy)
     bif = None
+    crossed = None
     nb = 0
     status, msg = "max_steps", f"stopped after max_steps = {max_steps} steps"
     while True:
         pt = pts[-1]
         new = _newton_step(sysm, model, pt, method, h, sign_ctrl, ctrl, tols, cnt)
+        if new is not None:
+            cnt.n_steps += 1
+        if new is not None and method == "load" and new.n_neg > pt.n_neg and _lambda_direction("arc-length", new, 1.0, None) < 0:
+            # converged onto the unstable side of a limit point: count it as a failed step and approach by halving
+            crossed = new.lam
+            new = None
         if new is None:
             h *= 0.5
             nb += 1
@@ -486,8 +493,10 @@ def trace_path(xy0, conn, section, F_ref, *, fixed=(), F_const=None, K_spring=No
             if nb > max_bisections:
                 if method == "load":
                     status = "load_control_limit"
-                    msg = (f"load control found no equilibrium beyond lambda = {pt.lam:.6g} (step halved {max_bisections} "
-                           f"times down to {h:.3g}); a limit point is likely there -- load control cannot pass it, use "
+                    why = ("the tangent turned indefinite with the path turning back" if crossed is not None
+                           else "no equilibrium was found")
+                    msg = (f"load control stopped at lambda = {pt.lam:.6g}: beyond it {why} (step halved {max_bisections} "
+                           f"times down to {h:.3g}); a limit point lies there -- load control cannot pass it, use "
                            f"arc-length; no limit load is reported")
                 else:
                     status = "step_failed"
@@ -495,7 +504,6 @@ def trace_path(xy0, conn, section, F_ref, *, fixed=(), F_const=None, K_spring=No
                 break
             continue
         nb = 0
-        cnt.n_steps += 1
         # bifurcation: loss of stability while the path keeps rising
         if new.n_neg > pt.n_neg and new.lam > pt.lam and _lambda_direction(method, new, sign_ctrl, ctrl) > 0:
             t = pt.min_eig / (pt.min_eig - new.min_eig) if pt.min_eig != new.min_eig else 1.0
@@ -504,12 +512,6 @@ def trace_path(xy0, conn, section, F_ref, *, fixed=(), F_const=None, K_spring=No
             msg = (f"the tangent stiffness became indefinite at lambda ~ {bif:.6g} (between {pt.lam:.6g} and {new.lam:.6g}) "
                    f"while the load still rose: a bifurcation of a (near) perfect structure; no limit point was found, add "
                    f"an imperfection")
-            break
-        if method == "load" and new.n_neg > pt.n_neg:
-            status = "load_control_limit"
-            msg = (f"the tangent stiffness became indefinite between lambda = {pt.lam:.6g} and {new.lam:.6g} and the path "
-                   f"turns back: a limit point lies there; load control cannot pass it, use arc-length; no limit load is "
-                   f"reported")
             break
         if first_yield is None and new.asm.yielding is not None and np.any(new.asm.yielding):
             first_yield = _first_yield(model, pt, new)
