@@ -14,9 +14,12 @@ traced by one of three methods:
   taken; a complex root, a non-finite value or ``max_iter`` iterations without
   convergence halves the step (bisection) and retries.  The predictor follows the
   sign of ``Delta u_prev . K^-1 q`` so the path passes limit points.
-* ``"load"`` -- load control; it cannot pass a limit point: when bisection is
-  exhausted the trace stops with status ``"load_control_limit"`` and no limit load
-  is claimed.
+* ``"load"`` -- load control; it cannot pass a limit point.  A step that fails to
+  converge, or converges onto the unstable side of a limit point (the tangent
+  turns indefinite and the path turns back), is halved; when bisection is
+  exhausted the trace stops with status ``"load_control_limit"``.  The last point
+  is then close below the limit but no limit load is claimed
+  (``limit_load_factor`` is None).
 * ``"displacement"`` -- control of one free DOF ``control_dof``.
 
 Full Newton-Raphson iterations with the consistent tangent; convergence when the
@@ -30,7 +33,10 @@ Limit point: the first time lambda falls, the trace returns to the point before
 the highest one and retraces with a quarter of the step, repeatedly, until the
 vertex of the parabola through the three points around the maximum (parameter:
 cumulative ``||Delta u||``) exceeds the highest converged load factor by less than
-``limit_tol`` (relative); that vertex is ``limit_load_factor``.
+``limit_tol`` (relative); that vertex is ``limit_load_factor``.  The accuracy is
+that of the traced discrete path: with plasticity the path itself depends slightly
+on the step history (about 1e-5 relative in the tests), so a smaller
+``limit_tol`` buys little.
 
 Stability and bifurcation: the number of negative eigenvalues of the free tangent
 is counted at every converged point.  If it grows while the path still rises in
@@ -414,7 +420,7 @@ def trace_path(xy0, conn, section, F_ref, *, fixed=(), F_const=None, K_spring=No
     state0 = model.initial_state()
     u0 = np.zeros(n_dof)
     start = _make_point(sysm, model, u0, 0.0, 0.0, state0, False, 0.0)
-    if start.n_neg > 0 or not np.isfinite(start.min_eig) or start.min_eig <= 1e-12:
+    if start.n_neg > 0 or not np.isfinite(start.min_eig) or start.min_eig <= 1e-13:
         raise ModelError("fixed", f"the restrained structure is a mechanism or unstable at the start (smallest scaled "
                                   f"stiffness eigenvalue {start.min_eig:.3g}), expected enough restraints against rigid-body motion")
     first_yield = None  # (lambda, bracket, location)
@@ -536,8 +542,8 @@ def trace_path(xy0, conn, section, F_ref, *, fixed=(), F_const=None, K_spring=No
         if _lam_steps(pts) >= max_steps:
             break
         h = min(h * float(np.clip(np.sqrt(desired_iter / max(new.n_it, 1)), 0.5, 2.0)), max_step)
-    if status == "max_steps" and peak_done is False:
-        msg += "; no limit point was passed"
+    if status in ("max_steps", "lambda_max", "displacement_limit") and not peak_done:
+        msg += "; no limit point was passed (limit_load_factor is None)"
     return _finish(model, pts, status, msg, cnt, limit, first_yield, bif)
 
 
