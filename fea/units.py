@@ -1,0 +1,121 @@
+"""Units at the edges: parse ``"3.6 m"`` into SI floats, format SI floats for display.
+
+The only module that imports pint.  The registry is built from the small
+definitions file ``units.txt`` beside this module (milliseconds, not the full
+default registry).
+"""
+
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass
+from functools import lru_cache
+from pathlib import Path
+
+from .errors import UnitError
+
+__all__ = ["DIMENSIONS", "parse", "registry", "DisplayUnits", "to_display"]
+
+#: Physical quantities used in case files: name -> (pint dimensionality, SI unit, example).
+DIMENSIONS: dict[str, tuple[str, str, str]] = {
+    "length": ("[length]", "m", "3.6 m"),
+    "area": ("[length] ** 2", "m^2", "4480 mm^2"),
+    "second moment of area": ("[length] ** 4", "m^4", "18.2e6 mm^4"),
+    "section modulus": ("[length] ** 3", "m^3", "420e3 mm^3"),
+    "stress": ("[mass] / [length] / [time] ** 2", "Pa", "205 GPa"),
+    "force": ("[length] * [mass] / [time] ** 2", "N", "450 kN"),
+    "force per length": ("[mass] / [time] ** 2", "N/m", "0.6 kN/m"),
+    "translational stiffness": ("[mass] / [time] ** 2", "N/m", "400 kN/m"),
+    "rotational stiffness": ("[length] ** 2 * [mass] / [time] ** 2", "N*m/rad", "2.5 MN*m/rad"),
+    "foundation modulus": ("[mass] / [length] / [time] ** 2", "N/m^2", "4 MN/m^2"),
+    "moment": ("[length] ** 2 * [mass] / [time] ** 2", "N*m", "12 kN*m"),
+}
+
+
+@lru_cache(maxsize=1)
+def registry():
+    """The shared, small pint registry."""
+    import pint
+
+    return pint.UnitRegistry(str(Path(__file__).with_name("units.txt")), autoconvert_offset_to_baseunit=False)
+
+
+def parse(key: str, value: object, dimension: str) -> float:
+    """Parse a quantity string into an SI float after checking its dimension.
+
+    Parameters
+    ----------
+    key : the case-file field, named in any error (e.g. ``segment[2].I_major``)
+    value : the text, e.g. ``"18.2e6 mm^4"``
+    dimension : a key of :data:`DIMENSIONS`
+
+    Raises
+    ------
+    UnitError
+        A bare number, an unknown unit, the wrong dimension, or a non-finite value.
+    """
+    dims, si, example = DIMENSIONS[dimension]
+    if isinstance(value, bool) or not isinstance(value, (str, int, float)):
+        raise UnitError(key, f"expected a {dimension} as a string with its unit, such as {example!r}; "
+                             f"got {value!r}")
+    if isinstance(value, (int, float)):
+        raise UnitError(key, f"{value!r} has no unit: expected a {dimension} such as {example!r}")
+    text = value.strip()
+    if not text:
+        raise UnitError(key, f"is empty: expected a {dimension} such as {example!r}")
+    ureg = registry()
+    try:
+        q = ureg.Quantity(text)
+    except Exception:
+        raise UnitError(key, f"{value!r} is not a quantity this tool understands: expected a {dimension} "
+                             f"such as {example!r}") from None
+    if not isinstance(q, ureg.Quantity) or q.dimensionless and dims != "[]":
+        raise UnitError(key, f"{value!r} has no unit: expected a {dimension} such as {example!r}")
+    if q.dimensionality != ureg.get_dimensionality(dims):
+        raise UnitError(key, f"{value!r} is not a {dimension}: expected units like {si} (e.g. {example!r})")
+    out = float(q.to_base_units().magnitude)
+    if not math.isfinite(out):
+        raise UnitError(key, f"{value!r} is not a finite {dimension}")
+    return out
+
+
+@dataclass(frozen=True)
+class DisplayUnits:
+    """Units used to print results: a length unit and a force unit.
+
+    Attributes
+    ----------
+    length, force : unit labels, e.g. ``"m"``, ``"kN"``
+    length_si, force_si : SI value of one display unit (``"mm"`` -> 1e-3)
+    """
+
+    length: str = "m"
+    force: str = "kN"
+    length_si: float = 1.0
+    force_si: float = 1e3
+
+    @classmethod
+    def from_names(cls, length: str = "m", force: str = "kN") -> "DisplayUnits":
+        return cls(length, force, parse("units.length", f"1 {length}", "length"),
+                   parse("units.force", f"1 {force}", "force"))
+
+    @property
+    def stress(self) -> str:
+        return "MPa" if self.length in ("m", "mm", "cm") else "ksi"
+
+    @property
+    def stress_si(self) -> float:
+        return 1e6 if self.stress == "MPa" else 6894757.293168361
+
+    def L(self, x: float) -> float:
+        return x / self.length_si
+
+    def F(self, x: float) -> float:
+        return x / self.force_si
+
+
+def to_display(value_si: float, unit: str) -> float:
+    """Convert an SI value into ``unit`` (any unit the registry knows)."""
+    ureg = registry()
+    q = ureg.Quantity(1.0, unit)
+    return value_si / float(q.to_base_units().magnitude)
