@@ -36,7 +36,7 @@ Coordinate system
 from __future__ import annotations
 
 import math
-from dataclasses import dataclass, field
+from dataclasses import dataclass
 from typing import Callable, ClassVar, Literal, Sequence
 
 import numpy as np
@@ -454,6 +454,19 @@ def _require(cond: bool, name: str, message: str) -> None:
         raise ModelError(name, message)
 
 
+def _check_flanged(shape: "ISection | Channel | Tee", flanges: int, fillets_across: int) -> None:
+    """Validate b, h, tf, tw, r of a shape with ``flanges`` flanges and
+    ``fillets_across`` root fillets beside the web on each flange."""
+    for name in ("b", "h", "tf", "tw"):
+        _positive(name, getattr(shape, name))
+    _non_negative("r", shape.r)
+    b, h, tf, tw, r = shape.b, shape.h, shape.tf, shape.tw, shape.r
+    _require(flanges * tf < h, "tf", f"{flanges} x tf = {flanges * tf:g} m is not below h = {h:g} m")
+    _require(tw < b, "tw", f"{tw:g} m is not below b = {b:g} m")
+    _require(tw + fillets_across * r <= b, "r", f"fillets {r:g} m do not fit beside the web on b = {b:g} m")
+    _require(flanges * (tf + r) <= h, "r", f"fillets {r:g} m do not fit in the web depth of h = {h:g} m")
+
+
 class _Shape:
     """Common machinery; subclasses provide ``_region`` and ``torsion_constant``."""
 
@@ -798,13 +811,7 @@ class ISection(_Shape):
     kind: ClassVar[str] = "i_section"
 
     def __post_init__(self) -> None:
-        for name in ("b", "h", "tf", "tw"):
-            _positive(name, getattr(self, name))
-        _non_negative("r", self.r)
-        _require(2.0 * self.tf < self.h, "tf", f"2 tf = {2 * self.tf:g} m is not below h = {self.h:g} m")
-        _require(self.tw < self.b, "tw", f"{self.tw:g} m is not below b = {self.b:g} m")
-        _require(self.tw + 2.0 * self.r <= self.b, "r", f"fillets {self.r:g} m do not fit beside the web")
-        _require(2.0 * (self.tf + self.r) <= self.h, "r", f"fillets {self.r:g} m do not fit in the web depth")
+        _check_flanged(self, flanges=2, fillets_across=2)
 
     def _region(self) -> _Region:
         b, h, tf, tw, r = self.b, self.h, self.tf, self.tw, self.r
@@ -903,13 +910,7 @@ class Channel(_Shape):
     kind: ClassVar[str] = "channel"
 
     def __post_init__(self) -> None:
-        for name in ("b", "h", "tf", "tw"):
-            _positive(name, getattr(self, name))
-        _non_negative("r", self.r)
-        _require(2.0 * self.tf < self.h, "tf", f"2 tf = {2 * self.tf:g} m is not below h = {self.h:g} m")
-        _require(self.tw < self.b, "tw", f"{self.tw:g} m is not below b = {self.b:g} m")
-        _require(self.tw + self.r <= self.b, "r", f"fillets {self.r:g} m do not fit on the flanges")
-        _require(2.0 * (self.tf + self.r) <= self.h, "r", f"fillets {self.r:g} m do not fit in the web depth")
+        _check_flanged(self, flanges=2, fillets_across=1)
 
     def _region(self) -> _Region:
         b, h, tf, tw, r = self.b, self.h, self.tf, self.tw, self.r
@@ -975,13 +976,7 @@ class Tee(_Shape):
     kind: ClassVar[str] = "tee"
 
     def __post_init__(self) -> None:
-        for name in ("b", "h", "tf", "tw"):
-            _positive(name, getattr(self, name))
-        _non_negative("r", self.r)
-        _require(self.tf < self.h, "tf", f"{self.tf:g} m is not below h = {self.h:g} m")
-        _require(self.tw < self.b, "tw", f"{self.tw:g} m is not below b = {self.b:g} m")
-        _require(self.tw + 2.0 * self.r <= self.b, "r", f"fillets {self.r:g} m do not fit beside the stem")
-        _require(self.tf + self.r <= self.h, "r", f"fillets {self.r:g} m do not fit on the stem")
+        _check_flanged(self, flanges=1, fillets_across=2)
 
     def _region(self) -> _Region:
         b, h, tf, tw, r = self.b, self.h, self.tf, self.tw, self.r
