@@ -36,6 +36,7 @@ Coordinate system
 from __future__ import annotations
 
 import math
+import numbers
 from dataclasses import dataclass
 from typing import Callable, ClassVar, Literal, Sequence
 
@@ -440,12 +441,12 @@ class FibreSet:
 
 
 def _positive(name: str, value: float) -> None:
-    if not (isinstance(value, (int, float)) and math.isfinite(value) and value > 0.0):
+    if not (isinstance(value, numbers.Real) and math.isfinite(value) and value > 0.0):
         raise ModelError(name, f"{value!r} m is not a positive finite length; expected a dimension > 0")
 
 
 def _non_negative(name: str, value: float) -> None:
-    if not (isinstance(value, (int, float)) and math.isfinite(value) and value >= 0.0):
+    if not (isinstance(value, numbers.Real) and math.isfinite(value) and value >= 0.0):
         raise ModelError(name, f"{value!r} m is not a non-negative finite length; expected >= 0")
 
 
