@@ -206,6 +206,9 @@ def load_case(path: str | Path) -> Case:
 
 def parse_case(data: bytes | str, source: str = "") -> Case:
     """Parse case-file text (TOML) into a :class:`Case`."""
+    from ..extensions import load as _load_extensions
+
+    _load_extensions()
     raw = data.encode("utf-8") if isinstance(data, str) else data
     try:
         text = raw.decode("utf-8")

@@ -23,7 +23,6 @@ import math
 
 import numpy as np
 import scipy.linalg as sla
-from scipy.sparse import csr_matrix
 from scipy.sparse.linalg import LinearOperator, eigsh
 
 from ..assemble import Assembled, assemble
@@ -40,8 +39,6 @@ logger = logging.getLogger(__name__)
 DENSE_MAX_DOF = 400
 DEFAULT_TOL = 1e-6
 MAX_LEVEL = 9
-#: Convergence order of the lowest load factor with cubic elements.
-ORDER = 4
 
 
 def _cholesky(K: np.ndarray, rcond: float = 1e-13) -> np.ndarray | None:
@@ -89,40 +86,13 @@ def _eig_dense(K: np.ndarray, G: np.ndarray, n_modes: int) -> tuple[np.ndarray, 
     return mu[::-1], vec[:, ::-1]
 
 
-def _to_banded_lower(K: np.ndarray, bw: int) -> np.ndarray:
-    n = K.shape[0]
+def _banded_lower(A, bw: int) -> np.ndarray:
+    """Lower banded storage (for scipy.linalg.cholesky_banded) of a sparse symmetric matrix."""
+    n = A.shape[0]
     ab = np.zeros((bw + 1, n))
     for d in range(bw + 1):
-        ab[d, : n - d] = np.diagonal(K, -d)
+        ab[d, : n - d] = A.diagonal(-d)
     return ab
-
-
-def _bandwidth(K: np.ndarray) -> int:
-    rows, cols = np.nonzero(K)
-    return int(np.max(np.abs(rows - cols))) if rows.size else 0
-
-
-def _eig_sparse(K: np.ndarray, G: np.ndarray, n_modes: int) -> tuple[np.ndarray, np.ndarray]:
-    n = K.shape[0]
-    bw = max(_bandwidth(K), _bandwidth(G))
-    cb = sla.cholesky_banded(_to_banded_lower(K, bw), lower=True, check_finite=False)
-    ub = _upper_from_lower(cb, bw)
-
-    Gs = csr_matrix(G)
-
-    def matvec(v: np.ndarray) -> np.ndarray:
-        # y = L^-1 G L^-T v
-        z = sla.solve_banded((0, bw), ub, v, check_finite=False)
-        z = Gs @ z
-        return sla.solve_banded((bw, 0), cb, z, check_finite=False)
-
-    op = LinearOperator((n, n), matvec=matvec, dtype=float)
-    m = min(n_modes, n - 2)
-    mu, y = eigsh(op, k=m, which="LA", tol=1e-13, ncv=min(n, max(2 * m + 1, 20)))
-    order = np.argsort(mu)[::-1]
-    mu, y = mu[order], y[:, order]
-    vec = sla.solve_banded((0, bw), ub, y, check_finite=False)
-    return mu, vec
 
 
 def _upper_from_lower(cb: np.ndarray, bw: int) -> np.ndarray:
@@ -134,6 +104,28 @@ def _upper_from_lower(cb: np.ndarray, bw: int) -> np.ndarray:
     return ub
 
 
+def _eig_sparse(K, G, n_modes: int) -> tuple[np.ndarray, np.ndarray]:
+    """Largest mu of G phi = mu K phi: banded Cholesky K = L L^T, ARPACK on L^-1 G L^-T."""
+    n = K.shape[0]
+    Kc, Gc = K.tocoo(), G.tocoo()
+    bw = int(max(np.max(np.abs(Kc.row - Kc.col), initial=0), np.max(np.abs(Gc.row - Gc.col), initial=0)))
+    cb = sla.cholesky_banded(_banded_lower(K, bw), lower=True, check_finite=False)
+    ub = _upper_from_lower(cb, bw)
+    Gs = G.tocsr()
+
+    def matvec(v: np.ndarray) -> np.ndarray:
+        z = sla.solve_banded((0, bw), ub, v, check_finite=False)
+        return sla.solve_banded((bw, 0), cb, Gs @ z, check_finite=False)
+
+    op = LinearOperator((n, n), matvec=matvec, dtype=float)
+    m = min(n_modes, n - 2)
+    mu, y = eigsh(op, k=m, which="LA", tol=1e-13, ncv=min(n, max(2 * m + 1, 20)))
+    order = np.argsort(mu)[::-1]
+    mu, y = mu[order], y[:, order]
+    vec = sla.solve_banded((0, bw), ub, y, check_finite=False)
+    return mu, vec
+
+
 def solve_assembled(asm: Assembled, n_modes: int, method: str = "auto") -> tuple[np.ndarray, np.ndarray, str]:
     """Largest ``mu`` of ``G phi = mu K phi`` (``K`` positive definite).
 
@@ -143,13 +135,13 @@ def solve_assembled(asm: Assembled, n_modes: int, method: str = "auto") -> tuple
     vec : (n_red, m) eigenvectors in the reduced numbering
     solver : "dense" or "sparse"
     """
-    n = asm.K.shape[0]
+    n = asm.n
     if method == "auto":
         method = "dense" if n <= DENSE_MAX_DOF else "sparse"
     if method == "dense":
         mu, vec = _eig_dense(asm.K, asm.G, n_modes)
     else:
-        mu, vec = _eig_sparse(asm.K, asm.G, n_modes)
+        mu, vec = _eig_sparse(asm.Ks, asm.Gs, n_modes)
     scale = np.max(np.abs(mu)) if mu.size else 0.0
     keep = mu > 1e-12 * max(scale, 1e-300)
     mu, vec = mu[keep], vec[:, keep]
@@ -179,9 +171,11 @@ def buckling(column: Column, n_modes: int = 3, tol: float = DEFAULT_TOL, method:
 
     The mesh is refined by doubling every interval until the estimated
     relative error of the lowest load factor is below ``tol``.  The estimate is
-    the Richardson estimate ``|lam_h - lam_h/2| / (2**4 - 1)`` once two
-    successive differences fall at the expected fourth-order rate, and the plain
-    difference before that.
+    the Richardson estimate ``|lam_h - lam_h/2| / (2**p - 1)`` with the order
+    ``p`` observed from three successive meshes (about 4 for shear-rigid
+    cubic elements, about 2 for shear-flexible ones), and the plain difference
+    before an order is observed.  When the observed order shows that several
+    more doublings are needed, the intermediate meshes are skipped.
 
     Parameters
     ----------
@@ -209,13 +203,11 @@ def buckling(column: Column, n_modes: int = 3, tol: float = DEFAULT_TOL, method:
     if method not in ("auto", "dense", "sparse"):
         raise ModelError("method", f"expected 'auto', 'dense' or 'sparse', got {method!r}")
 
-    history: list[float] = []
-    diffs: list[float] = []
+    solved: dict[int, float] = {}
     est = math.inf
-    mesh = asm = None
-    lam = vec = None
-    solver = ""
-    for level in range(MAX_LEVEL + 1):
+    order = None  # observed convergence order
+    level = 0
+    while True:
         mesh = build_mesh(column, level)
         asm = assemble(mesh)
         if level == 0:
@@ -223,14 +215,29 @@ def buckling(column: Column, n_modes: int = 3, tol: float = DEFAULT_TOL, method:
         lam, vec, solver = solve_assembled(asm, n_modes, method)
         if lam.size == 0:
             raise SolverError("no positive load factor found: the variable loads do not cause buckling")
-        history.append(float(lam[0]))
-        if level >= 1:
-            d = abs(history[-1] - history[-2])
-            diffs.append(d)
-            rate_ok = len(diffs) >= 2 and diffs[-2] > 0 and diffs[-2] / max(d, 1e-300) > 2 ** (ORDER - 1)
-            est = (d / (2**ORDER - 1) if rate_ok else d) / history[-1]
+        solved[level] = float(lam[0])
+        nxt = level + 1
+        if level - 1 in solved:
+            d = abs(solved[level] - solved[level - 1])
+            if level - 2 in solved:
+                d_prev = abs(solved[level - 1] - solved[level - 2])
+                if d_prev > 0 and d > 0 and 2.0 < d_prev / d < 2.0**6:
+                    order = math.log2(d_prev / d)
+            est = (d / (2.0**order - 1.0) if order else d) / solved[level]
             if level >= min_level and est <= tol:
                 break
+            if order and est > 0:
+                # skip levels when the observed rate says several doublings are still needed
+                k = math.ceil(math.log2(est / tol) / order)
+                if k >= 3:
+                    nxt = level + k - 1
+        if nxt > MAX_LEVEL:
+            if level < MAX_LEVEL:
+                nxt = MAX_LEVEL
+            else:
+                break
+        level = nxt
+    history = [solved[k] for k in sorted(solved)]
     converged = est <= tol
     msg = (f"lowest load factor converged: estimated relative discretisation error {est:.1e} <= {tol:.0e}"
            if converged else

@@ -1,0 +1,11 @@
+"""The cautions every result carries, on screen, in JSON and in reports."""
+
+CAUTION = ("Stanchion assists a competent engineer; it does not replace the governing design code, its national "
+           "annex, or a licensed engineer's judgement. Check every input and result.")
+
+LIMITATIONS = (
+    "Planar flexural buckling of a straight member about each principal axis separately: no torsional, "
+    "flexural-torsional, lateral-torsional or local buckling.",
+    "Restraints are taken as given: their adequacy (strength, stiffness, connection detail) is not checked.",
+    "All axial load is carried down the column to its base.",
+)

@@ -1,0 +1,101 @@
+"""Results -> the JSON contract (SI units).  Documented in cases/README.md."""
+
+from __future__ import annotations
+
+import json
+import math
+import os
+import tempfile
+from pathlib import Path
+from typing import Any
+
+from .. import __version__
+from ..cautions import CAUTION, LIMITATIONS
+from ..results import BucklingResult
+from ..runner import CaseResults
+
+__all__ = ["result_dict", "buckling_dict", "write_text_atomic", "to_json", "JSON_SECTIONS"]
+
+#: Optional parts of the JSON result: name -> f(CaseResults extras value) -> JSON-able object.
+JSON_SECTIONS: dict = {}
+
+
+def _num(x: float | None) -> float | None:
+    if x is None:
+        return None
+    x = float(x)
+    return x if math.isfinite(x) else None
+
+
+def buckling_dict(r: BucklingResult) -> dict[str, Any]:
+    """One bending plane: load factors, per-segment figures and mode shapes (SI)."""
+    return {
+        "axis": r.axis,
+        "load_factors": [float(v) for v in r.load_factors],
+        "converged": r.converged,
+        "discretisation_error": float(r.discretisation_error),
+        "tolerance": r.tolerance,
+        "n_elements": r.n_elements,
+        "solver": r.solver,
+        "message": r.message,
+        "segments": [
+            {
+                "index": s.index + 1,
+                "bottom_m": s.bottom,
+                "top_m": s.top,
+                "length_m": s.length,
+                "axial_force_N": s.axial_force,
+                "critical_axial_force_N": s.critical_axial_force,
+                "effective_length_factor": _num(s.effective_length_factor),
+                "effective_length_m": _num(s.effective_length),
+                "I_ref_m4": s.I_ref,
+                "energy_share": s.energy_share,
+                "k_meaningful": s.meaningful,
+                "note": s.note,
+            }
+            for s in r.segments
+        ],
+        "modes": {
+            "heights_m": [float(v) for v in r.heights],
+            "shapes": [[float(v) for v in m] for m in r.modes],
+        },
+    }
+
+
+def result_dict(res: CaseResults) -> dict[str, Any]:
+    """The whole JSON result of a case run."""
+    case = res.case
+    out: dict[str, Any] = {
+        "units": "SI",
+        "tool": {"name": "stanchion", "version": __version__},
+        "title": case.title,
+        "case_file": case.source,
+        "case_sha256": case.sha256,
+        "height_m": case.height,
+        "governing_axis": res.governing_axis,
+        "governing_load_factor": res.governing.load_factor,
+        "buckling": [buckling_dict(r) for r in res.buckling],
+    }
+    for name, value in res.extras.items():
+        if name in JSON_SECTIONS:
+            out[name] = JSON_SECTIONS[name](value)
+    out["cautions"] = [CAUTION, *LIMITATIONS]
+    return out
+
+
+def to_json(res: CaseResults) -> str:
+    return json.dumps(result_dict(res), indent=2, allow_nan=False)
+
+
+def write_text_atomic(path: str | Path, text: str | bytes) -> None:
+    """Write a file completely or not at all (temporary file + rename in the same folder)."""
+    p = Path(path)
+    mode = "wb" if isinstance(text, bytes) else "w"
+    fd, tmp = tempfile.mkstemp(prefix=f".{p.name}.", dir=str(p.parent or "."))
+    try:
+        with os.fdopen(fd, mode, **({} if mode == "wb" else {"encoding": "utf-8"})) as fh:
+            fh.write(text)
+        os.replace(tmp, p)
+    except BaseException:
+        Path(tmp).unlink(missing_ok=True)
+        raise
