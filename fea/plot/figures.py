@@ -454,8 +454,7 @@ def _draw_labels(ax: Axes, labels: list[_Label], x_text: float, side: str) -> No
     if not labels:
         return
     h = _axes_height_pt(ax)
-    top_extra = 0.0
-    centres = _spread(labels, -4.0, h + top_extra + 6.0)
+    centres = _spread(labels, -4.0, h + 6.0)
     ha = "left" if side == "right" else "right"
     for lab, yc in zip(labels, centres):
         tr = _pt(ax, 0.0, _pt_to_y(ax, 0.0))
@@ -708,8 +707,9 @@ def _set_height_axis(ax: Axes, column: Column, y_max: float, units: _Units, show
 
 def _draw_model_panel(ax: Axes, column: Column, units: _Units, y_max: float, extent: tuple[float, float],
                       height_label: bool) -> None:
-    left, right = extent
-    ax.set_xlim(-left, right)  # x data = points from the axis (panel width chosen to match)
+    left, _right = extent
+    width_pt = ax.get_position().width * ax.figure.get_figwidth() * 72.0
+    ax.set_xlim(-left, width_pt - left)  # x data = points from the axis; left-hand labels always fit
     _set_height_axis(ax, column, y_max, units, True, height_label)
     ax.set_xticks([])
     for side in ("top", "right", "bottom"):
@@ -925,9 +925,10 @@ def _figure(groups: list[_Group], units: _Units, suptitle: str, headings: list[s
             yc = (fig_h - TOP_SUPTITLE - 0.5 * TOP_HEADING) / fig_h
             fig.text(xc, yc, headings[gi], ha="center", va="center", fontsize=FS_HEAD,
                      fontweight="bold" if gi == governing else "normal")
-            if len(groups) > 1:
-                fig.add_artist(Line2D([(group_left + 0.05) / fig_w, (x - 0.05) / fig_w], [yc - 0.11 * 72 / 72 /
-                                      fig_h * 1.0] * 2, color="0.3", lw=0.6))
+            if len(groups) > 1:  # a rule under the heading spanning the group
+                y_rule = yc - 0.11 / fig_h
+                fig.add_artist(Line2D([(group_left + 0.05) / fig_w, (x - 0.05) / fig_w], [y_rule, y_rule],
+                                      color="0.3", lw=0.6))
         x += GROUP_GAP
     # one amplitude label under the mode panels
     first = mode_axes_all[0].get_position()
@@ -969,6 +970,8 @@ def plot_modes(column: Column, result: BucklingResult, ax_list: Sequence[Axes] |
         Axes of one existing figure to draw into: the first receives the model
         sketch, each further one a mode (so ``len(ax_list) - 1`` modes are
         drawn and ``n_modes`` is ignored).  No key is drawn in this case.
+        Position the axes first: the sketch is laid out from their size, and
+        its labels need the model axes to be about 2 to 3 inches wide.
         When omitted a new figure, sized for an A4 page, is made.
     n_modes : int
         Number of modes to draw (at most the number in ``result``).
