@@ -1,0 +1,83 @@
+"""Design check of a parsed case: gathers the segment data and the buckling figures (no I/O).
+
+The case declares its method in a ``[design]`` table (parsed by
+:mod:`fea.io.design_io` into a :class:`fea.design.check.DesignSpec`); this
+module turns the case and its buckling results into the inputs of
+:func:`fea.design.check.design_check`.
+"""
+
+from __future__ import annotations
+
+from typing import Sequence
+
+from .design.check import AxisBuckling, DesignResult, DesignSpec, MemberData, SegmentForces, design_check
+from .errors import CaseError
+from .io.case import Case
+from .model import Column
+from .results import BucklingResult
+
+__all__ = ["member_data", "segment_forces", "design_of_case", "NEEDS_FY"]
+
+#: Standards whose resistance is built on the yield strength fy.
+NEEDS_FY = ("EN 1993-1-1", "AISC 360", "AS 4100", "BS 5950-1", "Perry-Robertson")
+
+
+def member_data(case: Case, spec: DesignSpec, areas: Sequence[float | None] | None = None) -> tuple[MemberData, ...]:
+    """Per-segment design data of ``case`` (``areas`` replaces the case's areas, for sizing)."""
+    column = case.planes[0][1]
+    out = []
+    for i, (info, seg) in enumerate(zip(case.segments, column.segments)):
+        A = info.A if areas is None or areas[i] is None else areas[i]
+        if A is None:
+            raise CaseError(f"segment[{i + 1}].A", "missing: the design check needs the area A "
+                                                   "(give A, or a section by shape and dimensions)")
+        needs_fy = spec.standard in NEEDS_FY or (spec.standard == "Rankine-Gordon"
+                                                 and spec.for_segment(i).get("crushing_stress") is None)
+        if info.fy is None and needs_fy:
+            raise CaseError(f"segment[{i + 1}].fy", f"missing: {spec.standard} needs the yield strength fy; "
+                                                    "give it here or in [material]")
+        out.append(MemberData(name=info.name, A=A, fy=info.fy, E=seg.E, length=seg.length,
+                              fu=case.material.get("fu"), sigma_allow=case.material.get("sigma_allow")))
+    return tuple(out)
+
+
+def segment_forces(column: Column) -> tuple[SegmentForces, ...]:
+    """Largest compression and largest tension of each segment at load factor 1 [N].
+
+    The axial force is evaluated just above and just below both segment ends
+    and every load station inside the segment, where it is extreme (it is
+    piecewise linear in height).
+    """
+    H = column.height
+    tol = 1e-9 * H
+    inner = [p.at for p in column.point_loads] + [x for d in column.distributed_loads for x in (d.bottom, d.top)]
+    out = []
+    for a, b in column.segment_bounds():
+        xs = [a + tol, b - tol] + [x + s * tol for x in inner if a < x < b for s in (-1.0, 1.0)]
+        N = column.axial_force(xs)
+        out.append(SegmentForces(compression=max(float(N.max()), 0.0), tension=max(float(-N.min()), 0.0)))
+    return tuple(out)
+
+
+def _axis_buckling(r: BucklingResult) -> tuple[AxisBuckling, ...]:
+    return tuple(AxisBuckling(N_cr=s.critical_axial_force, effective_length_factor=s.effective_length_factor,
+                              meaningful=s.meaningful, note=s.note) for s in r.segments)
+
+
+def design_of_case(case: Case, results: Sequence[BucklingResult], spec: DesignSpec | None = None,
+                   areas: Sequence[float | None] | None = None, columns: Sequence[Column] | None = None
+                   ) -> DesignResult | None:
+    """Design check of ``case`` from its buckling ``results`` (one per plane, in the case's order).
+
+    Returns None when the case declares no design (and no ``spec`` is given).
+    ``areas`` and ``columns`` replace the case's segment areas and columns
+    (used by sizing, where every candidate is a new model).
+    """
+    spec = spec if spec is not None else case.extras.get("design")
+    if spec is None:
+        return None
+    cols = list(columns) if columns is not None else [c for _, c in case.planes]
+    members = member_data(case, spec, areas)
+    forces = segment_forces(cols[0])
+    buck = [(r.axis or a, _axis_buckling(r)) for r, (a, _) in zip(results, case.planes)]
+    return design_check(spec, members, forces, buck)
