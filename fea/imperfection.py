@@ -27,9 +27,12 @@ Bow shapes
 ``"half-sine-per-segment"``
     a half-sine over each segment, all towards ``+w`` (kinks at the joints).
 ``"between-restraints"``
-    a half-sine between consecutive laterally restrained stations; from the
-    last restraint to a free column end a quarter-sine ``a (1 - cos(pi s / 2 l))``
-    that is largest at the free end (a cantilever's sway-bow).
+    a half-sine between consecutive laterally restrained stations, alternating
+    in direction from one interval to the next (the lowest interval towards
+    ``+w``), as the first mode of a column over rigid intermediate supports;
+    from the last restraint to a free column end a quarter-sine
+    ``a (1 - cos(pi s / 2 l))`` that is largest at the free end (a cantilever's
+    sway-bow).
 ``"mode"``
     the first elastic buckling mode of the plane, scaled so that its largest
     lateral value is ``a`` (computed on the analysis mesh).
@@ -331,8 +334,8 @@ def _pieces_between(column: Column, imp: Imperfection) -> list[tuple[float, floa
             merged.append(p)
     restrained = [any(abs(p - s) <= tol for s in sup) for p in merged]
     out = []
-    for (a, ra), (b, rb) in zip(zip(merged[:-1], restrained[:-1]), zip(merged[1:], restrained[1:])):
-        amp = imp.piece_amplitude(b - a)
+    for k, ((a, ra), (b, rb)) in enumerate(zip(zip(merged[:-1], restrained[:-1]), zip(merged[1:], restrained[1:]))):
+        amp = imp.piece_amplitude(b - a) * (-1.0) ** k
         if ra and rb:
             out.append((a, b, "sine", amp))
         elif ra:

@@ -38,7 +38,6 @@ from typing import Any
 from ..errors import CaseError, ModelError
 from ..imperfection import (BOW_SHAPES, AppliedMoment, Imperfection, LateralActions, LateralDistributedLoad,
                             LateralPointLoad, SegmentSection)
-from ..sections import SHAPES
 from ..solve.imperfect import ANALYSES, ImperfectResult, analyse_imperfect
 from ..units import parse
 from . import case as _case
@@ -300,9 +299,6 @@ def parse_lateral(table: dict, doc: dict) -> LateralSpec:
     return LateralSpec(tuple(out_p), tuple(out_d), tuple(out_m)).merged(_load_actions(doc, H))
 
 
-_case.EXTRA_SECTIONS["imperfection"] = parse_imperfection
-_case.EXTRA_SECTIONS["lateral"] = parse_lateral
-_case._LOAD_EXTRA.update({"eccentricity_major", "eccentricity_minor"})
 
 
 # ---------------------------------------------------------------------------
@@ -310,35 +306,13 @@ _case._LOAD_EXTRA.update({"eccentricity_major", "eccentricity_minor"})
 
 
 def shape_from_table(table: dict, path: str):
-    """A shape of :mod:`fea.sections` from a ``section`` table: ``shape`` (or ``type``) and dimensions.
+    """A shape of :mod:`fea.sections` from a segment's ``section`` table (the format of the section hook)."""
+    from .design_io import build_shape
 
-    Example: ``{ shape = "i_section", b = "165 mm", h = "310 mm", tf = "9.7 mm", tw = "5.8 mm", r = "8.9 mm" }``.
-    """
-    name = table.get("shape", table.get("type"))
-    if name not in SHAPES:
-        raise CaseError(f"{path}.shape", f"expected one of {', '.join(SHAPES)}, got {name!r}")
-    cls = SHAPES[name]
-    import dataclasses
-
-    fields = {f.name for f in dataclasses.fields(cls)}
-    dims = {}
-    for k, v in table.items():
-        if k in ("shape", "type", "note", "name"):
-            continue
-        if k not in fields:
-            raise CaseError(f"{path}.{k}", f"is not a dimension of a {name}; expected {', '.join(sorted(fields))}")
-        dims[k] = parse(f"{path}.{k}", v, "length")
-    return _wrap(cls, **dims)
-
-
-def _fallback_section_hook(table: dict, path: str) -> dict:
-    """Second moments and area of a section given by its shape (used only when no other hook is installed)."""
-    p = shape_from_table(table, path).properties()
-    return {"I_major": p.I_major, "I_minor": p.I_minor, "A": p.area}
-
-
-if _case.SECTION_HOOK is None:
-    _case.SECTION_HOOK = _fallback_section_hook
+    if "shape" not in table:
+        raise CaseError(f"{path}.shape", "missing: give a shape such as 'i', 'rhs', 'chs', 'angle'")
+    dims = {k: parse(f"{path}.{k}", v, "length") for k, v in table.items() if k != "shape"}
+    return build_shape(table["shape"], dims, path)
 
 
 # ---------------------------------------------------------------------------
@@ -415,13 +389,20 @@ def plane_inputs(case, axis: str, spec: ImperfectionSpec | None = None):
         i = next(k for k, s in enumerate(sections) if s.W is None)
         raise CaseError(f"segment[{i + 1}].section", "missing: give the section (or [imperfection] W_...) for every "
                                                      "segment, so stresses can be checked everywhere")
+    if analysis in ("nonlinear", "both"):
+        rs = (f"residual stress {spec.residual_stress:g} fy at the flange tips of I sections (linear flange "
+              "pattern)" if spec.residual_stress else "no residual stress")
+        notes.append(f"fibre model: {spec.fibres} strips, {rs}, hardening E_t/E = {spec.hardening:g}")
     has_W = all(s.W is not None for s in sections)
     return col, spec.imperfection, tuple(sections) if (has_W or analysis != "second-order") else None, \
         spec.loads.for_axis(axis), analysis, notes
 
 
-def run_imperfect(case) -> dict[str, ImperfectResult]:
-    """Run the imperfect-column analyses ``case`` declares; ``{axis: ImperfectResult}`` (empty if none)."""
+def run_imperfect(case, buckling_results=None) -> dict[str, ImperfectResult]:
+    """Run the imperfect-column analyses ``case`` declares; ``{axis: ImperfectResult}`` (empty if none).
+
+    ``buckling_results`` (optional, one BucklingResult per plane) are reused for the critical loads.
+    """
     if not declares_imperfect(case):
         return {}
     spec = _spec(case)
@@ -432,8 +413,9 @@ def run_imperfect(case) -> dict[str, ImperfectResult]:
         col, imp, sections, actions, analysis, notes = plane_inputs(case, axis, spec)
         opts = dict(max_steps=spec.steps, tolerance=spec.tolerance, min_elements=spec.elements)
         try:
+            known = next((b for b in (buckling_results or ()) if b.axis == axis), None)
             res = analyse_imperfect(col, imp, sections, actions, analysis=analysis, axis=axis, tol=case.tolerance,
-                                    path_options=opts)
+                                    path_options=opts, critical=known)
         except CaseError:
             raise
         except ModelError as exc:
@@ -446,4 +428,25 @@ def run_imperfect(case) -> dict[str, ImperfectResult]:
 
 def imperfect_analysis(case, buckling_results=None) -> dict[str, ImperfectResult] | None:
     """Adapter for :data:`fea.runner.ANALYSES`: the results, or None when the case declares nothing."""
-    return run_imperfect(case) or None
+    return run_imperfect(case, buckling_results) or None
+
+
+def register() -> None:
+    """Add the case tables, the ``"imperfect"`` analysis, its JSON part and summary lines to the registries.
+
+    Called on import; the module is listed in :data:`fea.extensions.MODULES` to take part in ``stanchion check``.
+    """
+    from .. import runner
+    from . import export, summary
+    from .design_io import register as _sections  # noqa: F401  (installs the section hook)
+    from .imperfect_output import imperfect_json, imperfect_summary
+
+    _case.EXTRA_SECTIONS["imperfection"] = parse_imperfection
+    _case.EXTRA_SECTIONS["lateral"] = parse_lateral
+    _case._LOAD_EXTRA.update({"eccentricity_major", "eccentricity_minor"})
+    runner.ANALYSES["imperfect"] = imperfect_analysis
+    export.JSON_SECTIONS["imperfect"] = imperfect_json
+    summary.SUMMARY_SECTIONS["imperfect"] = imperfect_summary
+
+
+register()

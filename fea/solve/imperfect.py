@@ -143,6 +143,8 @@ class ComparisonRow:
     ----------
     index, bottom, top, length : segment number and extent [m]
     axial_force : largest compression in the segment at load factor 1 [N]
+    permanent_force, variable_force : its permanent part and its variable part
+        per unit load factor [N]
     euler_force : pi^2 E I / L^2 with the segment's own length (pinned ends) [N]
     critical_force : axial force at the elastic critical load (eigen) [N]
     perry_force : Perry's first-yield force with N_E = critical_force and the
@@ -157,12 +159,26 @@ class ComparisonRow:
     top: float
     length: float
     axial_force: float
+    permanent_force: float
+    variable_force: float
     euler_force: float
     critical_force: float | None
     perry_force: float | None
     perry_load_factor: float | None
     bow: float
     note: str = ""
+
+    def force(self, load_factor: float | None) -> float | None:
+        """Axial compression in the segment at ``load_factor`` [N] (None passes through)."""
+        if load_factor is None or not math.isfinite(load_factor):
+            return None
+        return self.permanent_force + load_factor * self.variable_force
+
+    def load_factor(self, force: float | None) -> float | None:
+        """Load factor giving the axial compression ``force`` in the segment [-], or None."""
+        if force is None or self.variable_force <= 0:
+            return None
+        return (force - self.permanent_force) / self.variable_force
 
 
 @dataclass(frozen=True)
@@ -481,14 +497,15 @@ def _comparison(column: Column, sections, bres, w0_heights, w0) -> tuple[Compari
             note = ("closed form for a uniform pin-ended member with a half-sine bow; here with N_E = the "
                     "segment's critical force and e0 = its largest bow")
         rows.append(ComparisonRow(index=i, bottom=a, top=b, length=seg.length, axial_force=Np + Nv,
-                                  euler_force=euler, critical_force=Ncr, perry_force=perry,
+                                  permanent_force=Np, variable_force=Nv, euler_force=float(euler), critical_force=Ncr, perry_force=perry,
                                   perry_load_factor=perry_lam, bow=e0, note=note))
     return tuple(rows)
 
 
 def analyse_imperfect(column: Column, imperfection: Imperfection | None, sections=None,
                       actions: LateralActions | None = None, *, analysis: str = "both", axis: str = "",
-                      tol: float = 1e-6, path_options: dict | None = None) -> ImperfectResult:
+                      tol: float = 1e-6, path_options: dict | None = None,
+                      critical=None) -> ImperfectResult:
     """Second-order and/or nonlinear analysis of one plane with the comparison figures.
 
     Parameters
@@ -498,6 +515,8 @@ def analyse_imperfect(column: Column, imperfection: Imperfection | None, section
     axis : bending-plane label
     tol : mesh tolerance of the second-order analysis and the eigen solution [-]
     path_options : keyword options passed to :func:`nonlinear_path`
+    critical : the :class:`~fea.results.BucklingResult` of this plane when it is
+        already known (saves solving it again)
 
     Returns
     -------
@@ -509,7 +528,7 @@ def analyse_imperfect(column: Column, imperfection: Imperfection | None, section
     actions = actions or LateralActions()
     warn: list[str] = []
     try:
-        bres = buckling(column, n_modes=1, tol=tol, axis=axis)
+        bres = critical if critical is not None else buckling(column, n_modes=1, tol=tol, axis=axis)
         lam_cr = bres.load_factor
     except ModelError as exc:
         if exc.field != "loads":

@@ -372,7 +372,7 @@ def _critical(d: Discrete) -> float:
     if not np.any(d.G):
         return math.inf
     try:
-        lam, _, _ = solve_assembled(d.asm, 1)
+        lam, _, _ = solve_assembled(d.asm, 1, method="sparse" if d.asm.n > 80 else "dense")
     except (np.linalg.LinAlgError, sla.LinAlgError):
         return math.inf
     return float(lam[0]) if lam.size else math.inf
@@ -427,7 +427,7 @@ def _analyse(column, imperfection, actions, sections, level, lam_check):
 
 
 def second_order(column: Column, imperfection: Imperfection | None = None, actions: LateralActions | None = None,
-                 sections=None, *, load_factors=None, n_load_factors: int = 21, tol: float = DEFAULT_TOL,
+                 sections=None, *, load_factors=None, n_load_factors: int = 11, tol: float = DEFAULT_TOL,
                  min_level: int = 1, axis: str = "") -> SecondOrderResult:
     """Second-order elastic deflections, moments, stresses and first yield of one plane.
 
