@@ -12,7 +12,6 @@ from dataclasses import dataclass
 from functools import cached_property
 
 import numpy as np
-import scipy.sparse as sp
 
 from .elements import elastic_stiffness, foundation_stiffness, geometric_stiffness
 from .mesh import Mesh
@@ -20,65 +19,107 @@ from .mesh import Mesh
 __all__ = ["Assembled", "assemble"]
 
 
+#: Systems up to this size are assembled and solved densely with numpy alone
+#: (importing scipy.sparse costs more start-up time than such a solve).
+DENSE_ASSEMBLY_MAX_DOF = 600
+
+
 @dataclass(frozen=True)
 class Assembled:
-    """Reduced global matrices of the eigenproblem ``K phi = lam G phi`` (sparse, CSR).
+    """Reduced global matrices of the eigenproblem ``K phi = lam G phi``.
+
+    Small systems are held as dense arrays, large ones as sparse CSR matrices;
+    ``K``/``K0``/``G`` always give dense arrays and ``Ks``/``K0s``/``Gs``
+    always give sparse ones (converted on first use).
 
     Attributes
     ----------
-    Ks : (n, n) elastic + springs + foundation, minus the permanent-load geometric
+    K : (n, n) elastic + springs + foundation, minus the permanent-load geometric
         stiffness (the stiffness the variable load acts against) [SI]
-    K0s : (n, n) elastic + springs + foundation only (no geometric terms)
-    Gs : (n, n) geometric stiffness of the variable loads at load factor 1
+    K0 : (n, n) elastic + springs + foundation only (no geometric terms)
+    G : (n, n) geometric stiffness of the variable loads at load factor 1
     free : (n,) indices of the retained degrees of freedom in the full numbering
     n_full : number of degrees of freedom before elimination
     k_bending : (n_el, 4, 4) element bending stiffness, for energy shares
-
-    ``K``, ``K0`` and ``G`` give the same matrices as dense arrays (built on
-    first use).
     """
 
-    Ks: sp.csr_matrix
-    K0s: sp.csr_matrix
-    Gs: sp.csr_matrix
+    matrices: tuple
     free: np.ndarray
     n_full: int
     k_bending: np.ndarray
 
+    @property
+    def n(self) -> int:
+        return self.matrices[0].shape[0]
+
+    @property
+    def is_sparse(self) -> bool:
+        return not isinstance(self.matrices[0], np.ndarray)
+
+    def _dense(self, i: int) -> np.ndarray:
+        m = self.matrices[i]
+        return m if isinstance(m, np.ndarray) else m.toarray()
+
+    def _sparse(self, i: int):
+        import scipy.sparse as sp
+
+        m = self.matrices[i]
+        return sp.csr_matrix(m) if isinstance(m, np.ndarray) else m
+
     @cached_property
     def K(self) -> np.ndarray:
-        return self.Ks.toarray()
+        return self._dense(0)
 
     @cached_property
     def K0(self) -> np.ndarray:
-        return self.K0s.toarray()
+        return self._dense(1)
 
     @cached_property
     def G(self) -> np.ndarray:
-        return self.Gs.toarray()
+        return self._dense(2)
 
-    @property
-    def n(self) -> int:
-        return self.Ks.shape[0]
+    @cached_property
+    def Ks(self):
+        return self._sparse(0)
+
+    @cached_property
+    def K0s(self):
+        return self._sparse(1)
+
+    @cached_property
+    def Gs(self):
+        return self._sparse(2)
 
 
-def _scatter(ke: np.ndarray, n_dof: int, diag: np.ndarray | None = None) -> sp.csr_matrix:
-    """Add element matrices (n_el, 4, 4) of a chain of elements (and a diagonal) into a sparse matrix."""
+def _scatter(ke: np.ndarray, n_dof: int, diag: np.ndarray, sparse: bool):
+    """Add element matrices (n_el, 4, 4) of a chain of elements and a diagonal into a global matrix."""
     n_el = ke.shape[0]
     # element e couples dofs 2e .. 2e+3; overlapping 2x2 blocks at shared nodes
     idx = 2 * np.arange(n_el)[:, None] + np.arange(4)[None, :]
     rows = np.repeat(idx, 4, axis=1).ravel()
     cols = np.tile(idx, (1, 4)).ravel()
     vals = ke.reshape(n_el, 16).ravel()
-    if diag is not None:
-        d = np.arange(n_dof)
-        rows, cols, vals = np.concatenate([rows, d]), np.concatenate([cols, d]), np.concatenate([vals, diag])
+    if not sparse:
+        out = np.zeros((n_dof, n_dof))
+        np.add.at(out, (rows, cols), vals)
+        out[np.diag_indices(n_dof)] += diag
+        return out
+    import scipy.sparse as sp
+
+    d = np.arange(n_dof)
+    rows, cols, vals = np.concatenate([rows, d]), np.concatenate([cols, d]), np.concatenate([vals, diag])
     return sp.csr_matrix((vals, (rows, cols)), shape=(n_dof, n_dof))  # duplicates are summed
 
 
-def assemble(mesh: Mesh) -> Assembled:
-    """Assemble and reduce the global matrices of ``mesh``."""
+def _reduce(m, free: np.ndarray):
+    return m[np.ix_(free, free)] if isinstance(m, np.ndarray) else m[free][:, free].tocsr()
+
+
+def assemble(mesh: Mesh, sparse: bool | None = None) -> Assembled:
+    """Assemble and reduce the global matrices of ``mesh`` (sparse when large, unless told)."""
     n = mesh.n_dof
+    if sparse is None:
+        sparse = n > DENSE_ASSEMBLY_MAX_DOF
     kb = elastic_stiffness(mesh.L, mesh.EI, mesh.phi)
     ke = kb.copy()
     if np.any(mesh.k_found):
@@ -92,14 +133,13 @@ def assemble(mesh: Mesh) -> Assembled:
     lean_perm = np.zeros(n)
     lean_perm[0::2] = mesh.lean_perm
 
-    K0 = _scatter(ke, n, np.where(rigid, 0.0, springs))
-    G = _scatter(geometric_stiffness(mesh.L, mesh.N_var, mesh.phi), n, lean_var)
+    K0 = _scatter(ke, n, np.where(rigid, 0.0, springs), sparse)
+    G = _scatter(geometric_stiffness(mesh.L, mesh.N_var, mesh.phi), n, lean_var, sparse)
     free = np.flatnonzero(~rigid)
-    K0r = K0[free][:, free]
+    K0r = _reduce(K0, free)
     if np.any(mesh.N_perm) or np.any(lean_perm):
-        Kp = _scatter(geometric_stiffness(mesh.L, mesh.N_perm, mesh.phi), n, lean_perm)
-        Kr = (K0 - Kp)[free][:, free]
+        Kp = _scatter(geometric_stiffness(mesh.L, mesh.N_perm, mesh.phi), n, lean_perm, sparse)
+        Kr = _reduce(K0 - Kp, free)
     else:
         Kr = K0r
-    return Assembled(Ks=Kr.tocsr(), K0s=K0r.tocsr(), Gs=G[free][:, free].tocsr(), free=free, n_full=n,
-                     k_bending=kb)
+    return Assembled(matrices=(Kr, K0r, _reduce(G, free)), free=free, n_full=n, k_bending=kb)

@@ -22,8 +22,6 @@ import logging
 import math
 
 import numpy as np
-import scipy.linalg as sla
-from scipy.sparse.linalg import LinearOperator, eigsh
 
 from ..assemble import Assembled, assemble
 from ..errors import ModelError, SolverError
@@ -44,8 +42,8 @@ MAX_LEVEL = 9
 def _cholesky(K: np.ndarray, rcond: float = 1e-13) -> np.ndarray | None:
     """Cholesky factor, or None when ``K`` is not (numerically) positive definite."""
     try:
-        C = sla.cholesky(K, lower=True, check_finite=False)
-    except sla.LinAlgError:
+        C = np.linalg.cholesky(K)
+    except np.linalg.LinAlgError:
         return None
     d = np.diagonal(C) ** 2
     return C if d.min() > rcond * np.max(np.diagonal(K)) else None
@@ -79,9 +77,23 @@ def _diagnose_mechanism(column: Column, mesh: Mesh, asm: Assembled) -> str:
     return "no lateral restraint: the column can move as a rigid body; add lateral or rotational restraint"
 
 
+#: Below this size the dense solve uses numpy alone (no scipy import at start-up);
+#: above it LAPACK's subset driver through scipy is faster.
+NUMPY_MAX_DOF = 160
+
+
 def _eig_dense(K: np.ndarray, G: np.ndarray, n_modes: int) -> tuple[np.ndarray, np.ndarray]:
     n = K.shape[0]
     m = min(n_modes, n)
+    if n <= NUMPY_MAX_DOF:
+        L = np.linalg.cholesky(K)
+        X = np.linalg.solve(L, G)
+        C = np.linalg.solve(L, X.T)  # L^-1 G L^-T (symmetric)
+        mu, y = np.linalg.eigh(0.5 * (C + C.T))
+        vec = np.linalg.solve(L.T, y[:, ::-1][:, :m])
+        return mu[::-1][:m], vec
+    import scipy.linalg as sla
+
     mu, vec = sla.eigh(G, K, subset_by_index=[n - m, n - 1], check_finite=False)
     return mu[::-1], vec[:, ::-1]
 
@@ -106,6 +118,9 @@ def _upper_from_lower(cb: np.ndarray, bw: int) -> np.ndarray:
 
 def _eig_sparse(K, G, n_modes: int) -> tuple[np.ndarray, np.ndarray]:
     """Largest mu of G phi = mu K phi: banded Cholesky K = L L^T, ARPACK on L^-1 G L^-T."""
+    import scipy.linalg as sla
+    from scipy.sparse.linalg import LinearOperator, eigsh
+
     n = K.shape[0]
     Kc, Gc = K.tocoo(), G.tocoo()
     bw = int(max(np.max(np.abs(Kc.row - Kc.col), initial=0), np.max(np.abs(Gc.row - Gc.col), initial=0)))
