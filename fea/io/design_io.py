@@ -316,14 +316,15 @@ def run_design(case, results):
 def register() -> None:
     """Add sections, the [design] table, the design analysis, its JSON and summary to the registries."""
     from . import case as case_io
-    from . import export, summary
-    from .. import runner
+    from . import export, sizing_command, summary
+    from .. import cli, runner
 
     case_io.SECTION_HOOK = section_properties
     case_io.EXTRA_SECTIONS["design"] = parse_design
     runner.ANALYSES["design"] = run_design
     export.JSON_SECTIONS["design"] = design_json
     summary.SUMMARY_SECTIONS["design"] = design_summary
+    cli.COMMANDS["size"] = (sizing_command.HELP, sizing_command.add_arguments, sizing_command.run)
 
 
 register()
