@@ -1,0 +1,111 @@
+"""``stanchion report CASE``: write the calculation record of a case (HTML, optionally Markdown).
+
+Registered in :data:`fea.cli.COMMANDS` when :mod:`fea.extensions` loads this module.
+Everything is computed before anything is written, and every file is written
+atomically, so an error leaves no half-written report behind.
+"""
+
+from __future__ import annotations
+
+import argparse
+import dataclasses
+import datetime
+import warnings
+from pathlib import Path
+
+from .. import cli
+from ..errors import FeaError
+
+__all__ = ["add_arguments", "run"]
+
+HELP = "write the calculation record of a case: one self-contained HTML file, optionally Markdown"
+
+
+def _date(text: str) -> str:
+    try:
+        return datetime.date.fromisoformat(text).isoformat()
+    except ValueError:
+        raise argparse.ArgumentTypeError(f"expected a date as YYYY-MM-DD, got {text!r}") from None
+
+
+def add_arguments(p: argparse.ArgumentParser) -> None:
+    p.add_argument("case", help="case file (TOML), see cases/README.md")
+    p.add_argument("-o", "--output", metavar="FILE.html",
+                   help="where to write the HTML record (default: the case file's name with .html, in the "
+                        "current folder)")
+    p.add_argument("--markdown", metavar="FILE.md",
+                   help="also write the record as Markdown, with its figures as SVG files beside it "
+                        "(FILE-sketch.svg, FILE-modes.svg, ...)")
+    p.add_argument("--units", metavar="FORCE,LENGTH",
+                   help="display units, e.g. 'kN,m' or 'N,mm' (default: the case's [units], else kN,m)")
+    p.add_argument("--modes", type=int, metavar="N", help="number of modes (default: the case's, else 3)")
+    p.add_argument("--only-buckling", action="store_true",
+                   help="leave out the optional analyses the case declares (imperfection, design)")
+    p.add_argument("--date", type=_date, metavar="YYYY-MM-DD",
+                   help="date printed on the record (default: today)")
+
+
+def _display(text: str):
+    from ..units import DisplayUnits
+
+    parts = [s.strip() for s in text.split(",")]
+    if len(parts) != 2:
+        raise FeaError(f"--units: expected FORCE,LENGTH such as 'kN,m' or 'N,mm', got {text!r}")
+    try:
+        return DisplayUnits.from_names(length=parts[1], force=parts[0])
+    except FeaError as exc:
+        raise FeaError(f"--units: {text!r}: {exc}") from None
+
+
+def _check_target(path: Path, suffix: str, option: str) -> None:
+    if path.suffix.lower() != suffix:
+        raise FeaError(f"{option}: {str(path)!r} should end in {suffix}")
+    if not (path.parent if str(path.parent) else Path(".")).is_dir():
+        raise FeaError(f"{option}: folder {str(path.parent)!r} does not exist")
+
+
+def run(args: argparse.Namespace) -> int:
+    from ..io.case import load_case
+    from ..io.export import result_dict, write_text_atomic
+    from ..runner import run_case
+    from . import build_markdown, build_report, report_figures
+
+    case = load_case(args.case)
+    out = Path(args.output) if args.output else Path(Path(args.case).stem + ".html")
+    _check_target(out, ".html", "-o")
+    md = Path(args.markdown) if args.markdown else None
+    if md is not None:
+        _check_target(md, ".md", "--markdown")
+    if args.modes is not None and not 1 <= args.modes <= 50:
+        raise FeaError(f"--modes: expected a whole number from 1 to 50, got {args.modes}")
+    if args.units:
+        case = dataclasses.replace(case, display=_display(args.units))
+    skip = ("imperfect", "design") if args.only_buckling else ()
+    with warnings.catch_warnings(record=True) as caught:
+        warnings.simplefilter("always")
+        res = run_case(case, n_modes=args.modes, skip=skip)
+    raised = list(dict.fromkeys(f"{w.category.__name__}: {w.message}" for w in caught))
+    data = result_dict(res)
+    figures = report_figures(res, data)
+    date = args.date or datetime.date.today().isoformat()
+    html_text = build_report(res, data, figures, warnings=raised, date=date)
+    files: list[tuple[Path, str]] = []
+    if md is not None:
+        links = {name: f"{md.stem}-{name}.svg" for name in figures}
+        for name, svg in figures.items():
+            files.append((md.with_name(links[name]), _standalone_svg(svg)))
+        files.append((md, build_markdown(res, data, figures, warnings=raised, date=date, figure_files=links)))
+    files.append((out, html_text))
+    for path, text in files:
+        write_text_atomic(path, text)
+    print(f"wrote {out}" + (f" and {md}" if md is not None else ""))
+    passed = data.get("design", {}).get("passed", True) if isinstance(data.get("design"), dict) else True
+    return cli.EXIT_OK if passed is not False else cli.EXIT_FAILED_CHECK
+
+
+def _standalone_svg(svg: str) -> str:
+    """An inline SVG element as a file of its own."""
+    return '<?xml version="1.0" encoding="utf-8"?>\n' + svg + "\n"
+
+
+cli.COMMANDS["report"] = (HELP, add_arguments, run)

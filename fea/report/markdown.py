@@ -1,0 +1,76 @@
+"""The report document -> Markdown (pipe tables), for pasting into other documents."""
+
+from __future__ import annotations
+
+from .document import Bullets, Em, Figure, Heading, Note, Para, Part, Q, Sub, T, Table
+
+__all__ = ["render_markdown"]
+
+_SPECIAL = str.maketrans({"|": "\\|", "*": "\\*", "_": "\\_", "`": "\\`", "<": "&lt;", ">": "&gt;"})
+
+
+def _esc(text: str) -> str:
+    return text.translate(_SPECIAL)
+
+
+def inline(parts) -> str:
+    out = []
+    for p in parts:
+        if isinstance(p, (Q, T)):
+            out.append(_esc(p.text))
+        elif isinstance(p, Em):
+            out.append(f"*{_esc(p.text)}*" if p.text.strip() else p.text)
+        elif isinstance(p, Sub):
+            out.append(f"<sub>{_esc(p.text)}</sub>")
+        else:
+            out.append(_esc(str(p)))
+    return "".join(out).replace("\n", " ")
+
+
+def _block(b, figure_files: dict[str, str], counter: list[int], numbers: list[int]) -> str:
+    if isinstance(b, Heading):
+        numbers[1] += 1
+        return f"### {numbers[0]}.{numbers[1]} {inline((b.text,))}" if b.level == 3 else \
+            f"#### {inline((b.text,))}"
+    if isinstance(b, Para):
+        return inline(b.parts)
+    if isinstance(b, Bullets):
+        return "\n".join(f"- {inline(i)}" for i in b.items)
+    if isinstance(b, Note):
+        label = "Caution." if b.kind == "caution" else "Warning."
+        return f"> **{label}** {inline(b.parts)}"
+    if isinstance(b, Figure):
+        counter[0] += 1
+        cap = f"*Figure {counter[0]}.* {inline(b.caption)}"
+        if b.name in figure_files:
+            return f"![Figure {counter[0]}]({figure_files[b.name]})\n\n{cap}"
+        return f"{cap} (drawn in the HTML report)"
+    if isinstance(b, Table):
+        num = set(b.numeric)
+        head = "| " + " | ".join(inline(h) for h in b.header) + " |"
+        rule = "| " + " | ".join("---:" if i in num else "---" for i in range(len(b.header))) + " |"
+        rows = ["| " + " | ".join(inline(c) or " " for c in row) + " |" for row in b.rows]
+        text = "\n".join([head, rule, *rows])
+        if b.caption:
+            text += f"\n\n{inline(b.caption)}"
+        return text
+    raise TypeError(f"unknown report block {type(b).__name__}")
+
+
+def render_markdown(title: T, ident: list[tuple], brief: list, caution: T, parts: list[Part],
+                    figure_files: dict[str, str] | None = None) -> str:
+    """Markdown of the report; figures are linked from ``figure_files`` (name -> relative path) when given."""
+    files = figure_files or {}
+    out = [f"# {inline((title,))}", "", "*Calculation record, compression member*", ""]
+    out += ["| | |", "| --- | --- |"] + [f"| {inline(k)} | {inline(v)} |" for k, v in ident] + [""]
+    counter = [0]
+    for b in brief:
+        out += [_block(b, files, counter, [0, 0]), ""]
+    out += [f"> **Caution.** {inline((caution,))}", ""]
+    for n, p in enumerate(parts, start=1):
+        numbers = [n, 0]
+        out += [f"## {n} {_esc(p.title)}", ""]
+        for b in p.blocks:
+            out += [_block(b, files, counter, numbers), ""]
+    out.append("*End of calculation record.*")
+    return "\n".join(out) + "\n"
