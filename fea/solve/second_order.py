@@ -98,8 +98,12 @@ class SecondOrderResult:
     first_yield_height : height of the first yield [m] or None
     first_yield_segment : segment index of the first yield or None
     n_elements : elements of the final mesh
-    refinement_history : (levels,) the monitored quantity at each mesh level
-    discretisation_error : estimated relative error of the monitored quantity
+    refinement_history : (levels,) the first monitored quantity at each mesh level
+        (the first-yield load factor when computed, else the largest moment)
+    discretisation_error : estimated relative error of the monitored quantities:
+        the first-yield load factor (when computed) and the largest moment and
+        deflection at the largest requested load factor (default: at 1.0 or
+        half the critical load factor, whichever is smaller)
     tolerance : requested relative tolerance
     converged : whether the estimate met the tolerance
     message : plain-language status
@@ -415,15 +419,13 @@ def _analyse(column, imperfection, actions, sections, level, lam_check):
     lam_cr = _critical(d)
     st = _Stress(d, column, sections) if sections is not None and all(s.W is not None for s in sections) else None
     fy = _first_yield(sol, st, lam_cr) if st is not None and st.fy is not None else None
+    lc = lam_check if lam_check is not None else (min(1.0, 0.5 * lam_cr) if math.isfinite(lam_cr) else 1.0)
+    u = sol.additional(lc)
+    M = sol.moments(u, lc)
+    q = np.array([np.abs(M).max(), np.abs(u[0::2] + d.w0n).max()])
     if fy is not None:
-        q = np.array([fy[0]])
-    else:
-        lc = lam_check if lam_check is not None else (min(1.0, 0.5 * lam_cr) if math.isfinite(lam_cr) else 1.0)
-        u = sol.additional(lc)
-        M = sol.moments(u, lc)
-        q = np.array([np.abs(M).max(), np.abs(u[0::2] + d.w0n).max()])
-        lam_check = lc
-    return d, sol, st, lam_cr, fy, q, lam_check
+        q = np.r_[fy[0], q]
+    return d, sol, st, lam_cr, fy, q, lc
 
 
 def second_order(column: Column, imperfection: Imperfection | None = None, actions: LateralActions | None = None,
@@ -470,13 +472,18 @@ def second_order(column: Column, imperfection: Imperfection | None = None, actio
     diffs: list[float] = []
     est = math.inf
     lam_check = None
+    if load_factors is not None:
+        lam_req = np.atleast_1d(np.asarray(load_factors, dtype=float))
+        if lam_req.size and np.all(np.isfinite(lam_req)):
+            lam_check = float(np.max(np.abs(lam_req)))
     level = min_level
     for level in range(min_level, MAX_LEVEL + 1):
         d, sol, st, lam_cr, fy, q, lam_check = _analyse(column, imperfection, actions, sections, level, lam_check)
         history.append(q)
         if len(history) >= 2:
-            scale = np.maximum(np.abs(history[-1]), 1e-300)
-            dq = float(np.max(np.abs(history[-1] - history[-2]) / scale))
+            scale = np.abs(history[-1])
+            rel = np.where(scale > 0, np.abs(history[-1] - history[-2]) / np.where(scale > 0, scale, 1.0), 0.0)
+            dq = float(np.max(rel))
             diffs.append(dq)
             rate_ok = len(diffs) >= 2 and diffs[-2] > 0 and diffs[-2] / max(dq, 1e-300) > 2 ** (ORDER - 1)
             est = dq / (2**ORDER - 1) if rate_ok else dq
@@ -485,7 +492,8 @@ def second_order(column: Column, imperfection: Imperfection | None = None, actio
             if est <= tol:
                 break
     converged = est <= tol
-    what = "first-yield load factor" if fy is not None else "largest moment and deflection"
+    what = ("first-yield load factor, largest moment and deflection" if fy is not None
+            else "largest moment and deflection")
     msg = (f"{what} converged: estimated relative discretisation error {est:.1e} <= {tol:.0e} "
            f"({d.mesh.n_el} elements)" if converged else
            f"mesh refinement stopped at level {MAX_LEVEL}: estimated relative error of the {what} {est:.1e} > {tol:.0e}")
