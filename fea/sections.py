@@ -41,7 +41,6 @@ from dataclasses import dataclass
 from typing import Callable, ClassVar, Literal, Sequence
 
 import numpy as np
-from scipy.optimize import brentq
 
 from fea.errors import ModelError
 
@@ -534,6 +533,8 @@ class _Shape:
         if abs(excess(0.0)) < 1e-13:
             vp = 0.0
         else:
+            from scipy.optimize import brentq  # imported here: keeps `import fea` fast
+
             vp = brentq(excess, vmin, vmax, xtol=1e-15 * (vmax - vmin), rtol=1e-15, maxiter=200)
         uu, vv, ww = reg.nodes(v_breaks=(vp,))
         return float(np.sum(ww * uu * np.abs(vv - vp))), vp
