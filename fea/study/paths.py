@@ -1,0 +1,233 @@
+"""Case-file key paths: address, read and change one scalar input of a parsed case document.
+
+A key path names a value the way an engineer reads the case file, arrays of
+tables counted from 1: ``restraint[1].rotation``, ``segment[2].length``,
+``load[1].axial``, ``segment[1].I_minor``, ``restraint[2].beam[1].span``,
+``material.E``.  The document is the plain dictionary ``tomllib`` returns; a
+changed document is turned back into TOML text by :func:`dump_toml` and parsed
+again by :func:`fea.io.case.parse_case`, so every value passes the same checks
+as a hand-written case file.
+
+Pure: dictionaries and strings in and out, no files.
+"""
+
+from __future__ import annotations
+
+import copy
+import json
+import math
+import re
+from dataclasses import dataclass
+
+from ..errors import CaseError
+from ..units import DIMENSIONS, parse
+
+__all__ = ["KeyPath", "parse_key", "dump_toml", "with_values", "format_si", "SPRING_KINDS"]
+
+#: Leaf key -> physical quantity (a key of :data:`fea.units.DIMENSIONS`), per table name.
+_LEAVES: dict[str, dict[str, str]] = {
+    "segment": {"length": "length", "E": "stress", "fy": "stress", "A": "area", "S": "force", "S_major": "force",
+                "S_minor": "force", **{k: "second moment of area" for k in
+                                       ("I", "I_major", "I_minor", "I_top", "I_major_top", "I_minor_top")}},
+    "restraint": {"at": "length", "lateral": "translational stiffness", "rotation": "rotational stiffness"},
+    "beam": {"E": "stress", "I": "second moment of area", "span": "length"},
+    "load": {"at": "length", "axial": "force"},
+    "distributed_load": {"from": "length", "to": "length", "axial": "force per length"},
+    "foundation": {"from": "length", "to": "length", "modulus": "foundation modulus",
+                   "modulus_bottom": "foundation modulus", "modulus_top": "foundation modulus"},
+    "leaning": {"at": "length", "load": "force", "height": "length"},
+    "material": {"E": "stress", "fy": "stress", "fu": "stress", "sigma_allow": "stress"},
+}
+
+#: Restraint keys that are springs ("free" and "rigid" allowed).
+SPRING_KINDS = ("lateral", "rotation")
+
+_PART = re.compile(r"^([A-Za-z_]+)(?:\[(\d+)\])?$")
+
+
+@dataclass(frozen=True)
+class KeyPath:
+    """One scalar input of a case file.
+
+    Attributes
+    ----------
+    text : the key path as written, e.g. ``"restraint[1].rotation"``
+    parts : ((name, index or None), ...) with 1-based indices
+    dimension : the physical quantity (key of :data:`fea.units.DIMENSIONS`)
+    si_unit : the SI unit of the value, e.g. ``"N*m/rad"``
+    """
+
+    text: str
+    parts: tuple[tuple[str, int | None], ...]
+    dimension: str
+
+    @property
+    def si_unit(self) -> str:
+        return DIMENSIONS[self.dimension][1]
+
+    @property
+    def leaf(self) -> str:
+        return self.parts[-1][0]
+
+    @property
+    def kind(self) -> str:
+        """The spring kind of a spring key: "lateral" or "rotation"."""
+        return self.leaf
+
+    @property
+    def is_spring(self) -> bool:
+        """A lateral or rotational spring of a restraint (not of a restraining beam)."""
+        return len(self.parts) == 2 and self.parts[0][0] == "restraint" and self.leaf in SPRING_KINDS
+
+    @property
+    def restraint_number(self) -> int | None:
+        """1-based number of the [[restraint]] table, for spring keys."""
+        return self.parts[0][1] if self.is_spring else None
+
+    def parse_value(self, value: object, where: str) -> float:
+        """A value for this key in SI: a quantity string, or 'free' / 'rigid' for a spring."""
+        if self.is_spring and isinstance(value, str) and value.strip().lower() in ("free", "rigid"):
+            return 0.0 if value.strip().lower() == "free" else math.inf
+        return parse(where, value, self.dimension)
+
+    def get(self, doc: dict) -> object:
+        """The value as written in the document (raises CaseError if absent)."""
+        table = _walk(doc, self)
+        if self.leaf not in table:
+            raise CaseError(self.text, "is not given in the case file")
+        return table[self.leaf]
+
+    def set(self, doc: dict, value: float) -> None:
+        """Write an SI value into ``doc`` (in place) as a quantity string."""
+        table = _walk(doc, self)
+        table[self.leaf] = format_si(value, self.si_unit, spring=self.is_spring)
+
+
+def parse_key(text: str) -> KeyPath:
+    """Parse ``text`` such as ``"segment[2].I_minor"`` into a :class:`KeyPath`.
+
+    Raises
+    ------
+    CaseError
+        Malformed path, unknown table or key, or a key that is not a number with a unit.
+    """
+    if not isinstance(text, str) or not text.strip():
+        raise CaseError("parameter", f"expected a key path such as 'restraint[1].rotation', got {text!r}")
+    parts = []
+    for raw in text.strip().split("."):
+        m = _PART.match(raw.strip())
+        if not m:
+            raise CaseError("parameter", f"{text!r}: cannot read {raw!r}; write e.g. 'segment[2].length'")
+        idx = int(m.group(2)) if m.group(2) is not None else None
+        if idx is not None and idx < 1:
+            raise CaseError("parameter", f"{text!r}: tables are counted from 1")
+        parts.append((m.group(1), idx))
+    tables = [p[0] for p in parts[:-1]]
+    if not tables:
+        raise CaseError("parameter", f"{text!r}: name a table and a key, e.g. 'segment[1].length'")
+    owner = tables[-1]
+    if owner == "beam" and tables[:1] != ["restraint"]:
+        raise CaseError("parameter", f"{text!r}: a beam belongs to a restraint, e.g. 'restraint[2].beam[1].span'")
+    if owner not in _LEAVES or len(tables) > (2 if owner == "beam" else 1):
+        raise CaseError("parameter", f"{text!r}: unknown table {owner!r}; expected one of "
+                                     f"{', '.join(k for k in _LEAVES if k != 'beam')}")
+    leaf = parts[-1][0]
+    if parts[-1][1] is not None:
+        raise CaseError("parameter", f"{text!r}: the last part must be a key, not a table")
+    if leaf not in _LEAVES[owner]:
+        raise CaseError("parameter", f"{text!r}: {leaf!r} is not a numeric key of [{owner}]; expected one of "
+                                     f"{', '.join(_LEAVES[owner])}")
+    for name, idx in parts[:-1]:
+        if name == "material" and idx is not None:
+            raise CaseError("parameter", f"{text!r}: [material] is a single table, write 'material.E'")
+        if name != "material" and idx is None:
+            raise CaseError("parameter", f"{text!r}: say which {name}, e.g. '{name}[1]'")
+    return KeyPath(text=text.strip(), parts=tuple(parts), dimension=_LEAVES[owner][leaf])
+
+
+def _walk(doc: dict, key: KeyPath) -> dict:
+    node: object = doc
+    for name, idx in key.parts[:-1]:
+        if not isinstance(node, dict) or name not in node:
+            raise CaseError(key.text, f"the case file has no [{name}] table")
+        node = node[name]
+        if idx is not None:
+            items = [node] if isinstance(node, dict) else node
+            if not isinstance(items, list) or idx > len(items):
+                n = len(items) if isinstance(items, list) else 0
+                raise CaseError(key.text, f"the case file has {n} [[{name}]] table(s), not {idx}")
+            node = items[idx - 1]
+    if not isinstance(node, dict):
+        raise CaseError(key.text, "does not lead to a table")
+    return node
+
+
+def format_si(value: float, unit: str, spring: bool = False) -> str:
+    """An SI value as a case-file quantity string that parses back to the same float."""
+    if spring and value == 0.0:
+        return "free"
+    if spring and math.isinf(value):
+        return "rigid"
+    return f"{float(value)!r} {unit}"
+
+
+def with_values(doc: dict, keys: tuple[KeyPath, ...], values: tuple[float, ...]) -> dict:
+    """A deep copy of ``doc`` with each key set to its SI value (the [study] table left out)."""
+    out = copy.deepcopy({k: v for k, v in doc.items() if k != "study"})
+    for key, v in zip(keys, values):
+        key.set(out, v)
+    return out
+
+
+# ---------------------------------------------------------------------------
+# a small TOML writer for case documents (tables, arrays of tables, scalars, arrays of scalars)
+
+
+def _scalar(v: object) -> str:
+    if isinstance(v, bool):
+        return "true" if v else "false"
+    if isinstance(v, int):
+        return str(v)
+    if isinstance(v, float):
+        if math.isnan(v):
+            return "nan"
+        if math.isinf(v):
+            return "inf" if v > 0 else "-inf"
+        return repr(v)
+    if isinstance(v, str):
+        return json.dumps(v, ensure_ascii=False)  # a JSON string is a valid TOML basic string
+    if isinstance(v, list) and all(not isinstance(x, dict) for x in v):
+        return "[" + ", ".join(_scalar(x) for x in v) + "]"
+    if isinstance(v, dict):  # inline table
+        return "{" + ", ".join(f"{_name(k)} = {_scalar(x)}" for k, x in v.items()) + "}"
+    raise TypeError(f"cannot write {type(v).__name__} to TOML")
+
+
+def _name(k: str) -> str:
+    return k if re.fullmatch(r"[A-Za-z0-9_-]+", k) else json.dumps(k)
+
+
+def _is_table_array(v: object) -> bool:
+    return isinstance(v, list) and bool(v) and all(isinstance(x, dict) for x in v)
+
+
+def _emit(table: dict, prefix: str, out: list[str]) -> None:
+    for k, v in table.items():
+        if not isinstance(v, dict) and not _is_table_array(v):
+            out.append(f"{_name(k)} = {_scalar(v)}")
+    for k, v in table.items():
+        path = f"{prefix}.{_name(k)}" if prefix else _name(k)
+        if isinstance(v, dict):
+            out.append(f"\n[{path}]")
+            _emit(v, path, out)
+        elif _is_table_array(v):
+            for item in v:
+                out.append(f"\n[[{path}]]")
+                _emit(item, path, out)
+
+
+def dump_toml(doc: dict) -> str:
+    """TOML text of a case document (``tomllib.loads(dump_toml(d)) == d``)."""
+    out: list[str] = []
+    _emit(doc, "", out)
+    return "\n".join(out) + "\n"

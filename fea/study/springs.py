@@ -1,0 +1,277 @@
+"""Load factors of a column whose chosen springs vary together, on one fixed mesh.
+
+:class:`SpringModel` assembles the column once, without the chosen springs,
+and adds them to the diagonal of the stiffness for each evaluation, so a load
+factor costs one dense generalised eigen-solution of the lowest mode.  It is
+the common engine of the brace-stiffness search, the sensitivity check and
+the fixity bounds; a single spring over thousands of values goes through
+:class:`fea.solve.spring.SpringStudy` instead.
+
+Also here: the effective-length factors that follow from a load factor alone
+(:func:`effective_length_factors`), without the mode.
+
+Pure: SI floats and arrays, no I/O.
+"""
+
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass
+
+import numpy as np
+import scipy.linalg as sla
+
+from ..assemble import assemble
+from ..errors import ModelError
+from ..mesh import build_mesh
+from ..model import Column
+from ..solve.eigen import DEFAULT_TOL, buckling
+
+from scipy.linalg.lapack import dpbtrf
+
+__all__ = ["SpringModel", "converged_level", "effective_length_factors", "spring_dof"]
+
+KIND_DOF = {"lateral": 0, "rotation": 1}
+
+
+def converged_level(column: Column, tol: float = DEFAULT_TOL) -> int:
+    """Mesh refinement level at which :func:`buckling` meets ``tol`` for ``column``."""
+    res = buckling(column, n_modes=1, tol=tol)
+    return int(round(math.log2(res.n_elements / build_mesh(column, 0).n_el)))
+
+
+def spring_dof(mesh, column: Column, restraint: int, kind: str) -> int:
+    """Full-numbering degree of freedom of restraint ``restraint``'s ``kind`` spring."""
+    if kind not in KIND_DOF:
+        raise ModelError("kind", f"expected 'lateral' or 'rotation', got {kind!r}")
+    at = column.restraints[restraint].at
+    node = int(np.argmin(np.abs(mesh.x - at)))
+    return 2 * node + KIND_DOF[kind]
+
+
+def effective_length_factors(column: Column, load_factor: float) -> np.ndarray:
+    """K of every segment at ``load_factor`` (NaN where not in compression), as :func:`buckling` defines it.
+
+    ``K = (pi / L) sqrt(E I_ref / N_cr)`` with ``N_cr = N_perm + lam N_var`` taken
+    just above the segment's bottom (the largest compression in the segment).
+    """
+    tolx = 1e-9 * column.height
+    out = np.full(len(column.segments), np.nan)
+    if not (load_factor > 0 and math.isfinite(load_factor)):
+        return out
+    for i, (s, (a, _b)) in enumerate(zip(column.segments, column.segment_bounds())):
+        xs = np.array([a + tolx])
+        Ncr = float(column.axial_force(xs, permanent=True)[0]) + load_factor * float(
+            column.axial_force(xs, permanent=False)[0])
+        if Ncr > 0:
+            out[i] = math.pi / s.length * math.sqrt(s.E * s.I_ref / Ncr)
+    return out
+
+
+@dataclass(frozen=True)
+class SpringModel:
+    """One mesh of ``column`` with ``springs`` free to take any stiffness.
+
+    Attributes
+    ----------
+    column : the column (the chosen springs' own values are ignored)
+    springs : ((restraint index, kind), ...) the springs that vary
+    level : mesh refinement level
+    K : (n, n) stiffness without the chosen springs (reduced numbering) [SI]
+    G : (n, n) geometric stiffness of the variable loads [SI]
+    dofs : (m,) reduced index of each chosen spring's degree of freedom
+    heights : (n_nodes,) node heights [m]
+    free : (n,) full-numbering index of each reduced degree of freedom
+    """
+
+    column: Column
+    springs: tuple[tuple[int, str], ...]
+    level: int
+    K: np.ndarray
+    G: np.ndarray
+    dofs: tuple[int, ...]
+    heights: np.ndarray
+    free: np.ndarray
+
+    @classmethod
+    def build(cls, column: Column, springs, level: int) -> "SpringModel":
+        springs = tuple((int(r), str(k)) for r, k in springs)
+        base = column
+        for r, kind in springs:
+            if not 0 <= r < len(column.restraints):
+                raise ModelError("restraint", f"index {r} is out of range (0..{len(column.restraints) - 1})")
+            if kind not in KIND_DOF:
+                raise ModelError("kind", f"expected 'lateral' or 'rotation', got {kind!r}")
+            base = base.with_restraint(r, **{kind: 0.0})
+        mesh = build_mesh(base, level)
+        asm = assemble(mesh)
+        dofs = []
+        for r, kind in springs:
+            full = spring_dof(mesh, base, r, kind)
+            j = int(np.searchsorted(asm.free, full))
+            if j >= asm.free.size or asm.free[j] != full:
+                raise ModelError(f"restraint[{r + 1}].{kind}", "another restraint at the same station is rigid "
+                                                               "in the same direction: this spring has no effect")
+            dofs.append(j)
+        return cls(column=column, springs=springs, level=level, K=asm.K.copy(), G=asm.G.copy(), dofs=tuple(dofs),
+                   heights=mesh.x.copy(), free=asm.free.copy())
+
+    def _check(self, k) -> np.ndarray:
+        k = np.asarray(k, dtype=float).reshape(-1)
+        if k.size != len(self.dofs):
+            raise ModelError("stiffness", f"expected {len(self.dofs)} values, got {k.size}")
+        if np.any(np.isnan(k)) or np.any(k < 0):
+            raise ModelError("stiffness", f"values must be >= 0 (inf for rigid), got {k.tolist()}")
+        return k
+
+    def _matrices(self, k) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
+        k = self._check(k)
+        K = self.K.copy()
+        keep = np.ones(K.shape[0], dtype=bool)
+        for d, v in zip(self.dofs, k):
+            if math.isinf(v):
+                keep[d] = False
+            else:
+                K[d, d] += v
+        return K[np.ix_(keep, keep)], self.G[np.ix_(keep, keep)], keep
+
+    def _bands(self, rigid: tuple[bool, ...]) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
+        """Lower band storage of K and G with the rigid springs' dofs removed, and the others' positions."""
+        cache = self.__dict__.setdefault("_band_cache", {})
+        if rigid not in cache:
+            keep = np.ones(self.K.shape[0], dtype=bool)
+            for d, r in zip(self.dofs, rigid):
+                if r:
+                    keep[d] = False
+            K = self.K[np.ix_(keep, keep)]
+            G = self.G[np.ix_(keep, keep)]
+            n = K.shape[0]
+            nz = np.nonzero((K != 0) | (G != 0))
+            bw = int(np.max(np.abs(nz[0] - nz[1]), initial=0))
+            Kb = np.zeros((bw + 1, n))
+            Gb = np.zeros((bw + 1, n))
+            for d in range(bw + 1):
+                Kb[d, : n - d] = np.diagonal(K, -d)
+                Gb[d, : n - d] = np.diagonal(G, -d)
+            new_index = np.cumsum(keep) - 1
+            pos = np.array([new_index[d] if not r else -1 for d, r in zip(self.dofs, rigid)], dtype=int)
+            cache[rigid] = (Kb, Gb, pos)
+        return cache[rigid]
+
+    def _banded_K(self, k) -> tuple[np.ndarray, np.ndarray]:
+        k = self._check(k)
+        rigid = tuple(bool(np.isinf(v)) for v in k)
+        Kb, Gb, pos = self._bands(rigid)
+        Kb = Kb.copy()
+        fin = ~np.isinf(k)
+        np.add.at(Kb[0], pos[fin], k[fin])
+        return Kb, Gb
+
+    def exceeds(self, k, t: float) -> bool:
+        """Whether the lowest load factor with the springs at ``k`` is at least ``t`` (> 0).
+
+        Sylvester's law of inertia: ``lam_1 >= t`` exactly when ``K - t G`` is
+        positive definite (``K`` positive definite), decided by one banded
+        Cholesky factorisation.
+        """
+        Kb, Gb = self._banded_K(k)
+        return _positive_definite(Kb - t * Gb)
+
+    def load_factor(self, k) -> float:
+        """Lowest positive load factor with the chosen springs at ``k`` (m values, ``inf`` rigid).
+
+        Found by bisection on the inertia of ``K - t G`` (banded Cholesky
+        factorisations) to 1e-9 relative, started from the Rayleigh quotient
+        of a few inverse iterations (an upper bound), then polished by shifted
+        inverse iteration and the Rayleigh quotient (smooth in ``k``, as finite
+        differences need).  0.0 when the
+        column is a mechanism or its permanent loads alone exceed the critical
+        load (no positive load factor is stable); ``inf`` when the variable
+        loads cause no buckling.
+        """
+        Kb, Gb = self._banded_K(k)
+        n = Kb.shape[1]
+        if n == 0 or not _positive_definite(Kb):
+            return 0.0
+        bw = Kb.shape[0] - 1
+        cb = sla.cholesky_banded(Kb, lower=True, check_finite=False)
+        x = np.ones(n)
+        hi = math.inf
+        for _ in range(6):
+            y = sla.cho_solve_banded((cb, True), _band_matvec(Gb, x, bw), check_finite=False)
+            nrm = np.max(np.abs(y))
+            if not nrm > 0:
+                return math.inf
+            x = y / nrm
+            xg = x @ _band_matvec(Gb, x, bw)
+            if xg > 0:
+                hi = min(hi, (x @ _band_matvec(Kb, x, bw)) / xg)
+        if not math.isfinite(hi):
+            K, G, _ = self._matrices(k)  # no positive direction found by iteration: decide densely
+            mu = sla.eigh(G, K, subset_by_index=[n - 1, n - 1], eigvals_only=True, check_finite=False)[0]
+            return 1.0 / mu if mu > 0 else math.inf
+        lo = hi
+        while not _positive_definite(Kb - lo * Gb):
+            lo *= 0.5
+        a, b = math.log(lo), math.log(hi)
+        while b - a > 1e-9:
+            mid = 0.5 * (a + b)
+            if _positive_definite(Kb - math.exp(mid) * Gb):
+                a = mid
+            else:
+                b = mid
+        # polish: inverse iteration shifted to the lower bracket, then the Rayleigh quotient
+        sigma = math.exp(a) * (1.0 - 1e-9)
+        cs = sla.cholesky_banded(Kb - sigma * Gb, lower=True, check_finite=False)
+        for _ in range(4):
+            y = sla.cho_solve_banded((cs, True), _band_matvec(Gb, x, bw), check_finite=False)
+            x = y / np.max(np.abs(y))
+        xg = x @ _band_matvec(Gb, x, bw)
+        rq = (x @ _band_matvec(Kb, x, bw)) / xg if xg > 0 else math.nan
+        lo_b, hi_b = math.exp(a), math.exp(b)
+        return rq if lo_b * (1 - 1e-12) <= rq <= hi_b * (1 + 1e-12) else math.exp(0.5 * (a + b))
+
+    def load_factor_dense(self, k) -> float:
+        """:meth:`load_factor` by dense LAPACK (slower; smoother in ``k`` for finite differences)."""
+        lam, _, _ = self.modes(k, n_modes=1)
+        return float(lam[0])
+
+    def modes(self, k, n_modes: int = 2) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
+        """Lowest load factors (ascending) and mode vectors in the reduced numbering of this model.
+
+        Returns
+        -------
+        lam : (m,) load factors
+        phi : (n, m) modes, zero at the degrees of freedom made rigid by ``k``
+        G : (n, n) the geometric stiffness of this model
+        """
+        K, G, keep = self._matrices(k)
+        n = K.shape[0]
+        m = min(n_modes, n)
+        try:
+            mu, vec = sla.eigh(G, K, subset_by_index=[n - m, n - 1], check_finite=False)
+        except (sla.LinAlgError, ValueError):
+            raise ModelError("restraints", "the column is a mechanism or its permanent loads alone buckle it") \
+                from None
+        mu, vec = mu[::-1], vec[:, ::-1]
+        phi = np.zeros((self.K.shape[0], m))
+        phi[keep] = vec
+        with np.errstate(divide="ignore"):
+            lam = np.where(mu > 0, 1.0 / mu, np.inf)
+        return lam, phi, self.G
+
+
+def _positive_definite(ab: np.ndarray) -> bool:
+    """Whether the symmetric matrix in lower band storage ``ab`` is positive definite (Cholesky succeeds)."""
+    _, info = dpbtrf(ab, lower=1)
+    return info == 0
+
+
+def _band_matvec(ab: np.ndarray, x: np.ndarray, bw: int) -> np.ndarray:
+    """``A x`` for symmetric ``A`` in lower band storage."""
+    y = ab[0] * x
+    n = x.size
+    for d in range(1, bw + 1):
+        y[d:] += ab[d, : n - d] * x[: n - d]
+        y[: n - d] += ab[d, : n - d] * x[d:]
+    return y
