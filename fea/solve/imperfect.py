@@ -78,6 +78,8 @@ class NonlinearPath:
     heights : (n_nodes,) node heights [m]
     bow : (n_nodes,) initial bow at the nodes [m]
     deflection : (n_pts, n_nodes) total lateral position w0 + u [m]
+    rotation : (n_pts, n_nodes) node rotation from the initial geometry, positive
+        when the axis turns towards +w going up [rad]
     control_height : height of the node whose deflection is the path's abscissa [m]
         (largest total deflection at the limit point or the last point)
     control_deflection : (n_pts,) total lateral deflection there [m]
@@ -109,6 +111,7 @@ class NonlinearPath:
     heights: np.ndarray
     bow: np.ndarray
     deflection: np.ndarray
+    rotation: np.ndarray
     control_height: float
     control_deflection: np.ndarray
     ip_heights: np.ndarray
@@ -458,6 +461,7 @@ def _package(r: PathResult, mesh, w0n, sec, n_fib: int, tol: float) -> Nonlinear
         fy_off = float(-sec.y[e, f]) if hasattr(sec, "y") else None
     return NonlinearPath(
         load_factors=_ro(r.load_factors), heights=_ro(x), bow=_ro(w0n), deflection=_ro(defl),
+        rotation=_ro(-np.asarray(r.displacements)[:, 2::3]),
         control_height=float(x[ctrl]), control_deflection=_ro(defl[:, ctrl]), ip_heights=_ro(ip_h),
         axial_force=_ro(-np.asarray(r.axial_force)), bending_moment=_ro(r.bending_moment),
         yield_fraction=_ro(yf), yield_extent=_ro(ext), limit_load_factor=r.limit_load_factor,
