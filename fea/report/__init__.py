@@ -69,7 +69,7 @@ def _prepare(res: CaseResults, json_dict: dict | None, figures: dict | None, war
     if "modes" in figs:
         mode_figs.append((figs["modes"], ("Buckling modes of each bending plane beside a model sketch; modes "
                                           "scaled to a largest lateral displacement of one.",)))
-    parts = report_parts(res, data, u, figs.get("sketch"), mode_figs, all_warnings)
+    parts = report_parts(res, data, u, figs.get("sketch"), mode_figs, all_warnings, figures=figures is None or bool(figs))
     date = date or datetime.date.today().isoformat()
     title = T(data.get("title") or "(untitled case)", "json:title")
     ident = header_rows(data, res.case, date)

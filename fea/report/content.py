@@ -18,9 +18,10 @@ from .document import Bullets, Em, Sub, Figure, Heading, Note, Para, Part, Q, T,
 
 __all__ = ["Units", "report_parts", "PART_FIGURES", "KNOWN_PARTS", "header_rows"]
 
-#: Figures for optional JSON parts: part name -> f(part dict, DisplayUnits) -> list of
-#: (matplotlib Figure or SVG text, caption).  Registered by the modules that own the part.
-PART_FIGURES: dict[str, Callable[[dict, DisplayUnits], list]] = {}
+#: Figures for optional JSON parts: part name -> f(CaseResults, JSON part, DisplayUnits) -> list of
+#: (matplotlib Figure or SVG text, caption).  Overrides the built-in figures of "design" and
+#: "imperfect"; registered by the modules that own a part.
+PART_FIGURES: dict[str, Callable[[CaseResults, Any, DisplayUnits], list]] = {}
 
 #: Top-level JSON keys this module renders itself; any other dict or list part is
 #: rendered generically.
@@ -410,10 +411,10 @@ def _cell(key: str, value: Any, path: str, u: Units) -> tuple:
         return (_yes(value, f"json:{path}"),)
     if value is None:
         return ("—",)
+    if isinstance(value, int) and not u.by_suffix(key)[0]:
+        return (Q(value, f"json:{path}", "", 6),)
     if isinstance(value, (int, float)):
-        unit, _ = u.by_suffix(key)
-        sig = 6 if isinstance(value, int) and not unit else 4
-        return (q(value, f"json:{path}", unit, sig),)
+        return (q(value, f"json:{path}", u.by_suffix(key)[0]),)
     return (T(str(value), f"json:{path}"),)
 
 
@@ -485,21 +486,182 @@ def _svg_of(fig: Any) -> str:
     return fig if isinstance(fig, str) else figure_svg(fig)
 
 
-def _optional_part(name: str, part: Any, u: Units, display: DisplayUnits) -> Part:
+def _rows(obj: dict, path: str, keys: tuple[str, ...], u: Units) -> list[tuple]:
+    """(quantity, value, unit) rows for the ``keys`` present in ``obj``."""
+    return [((_label(k, f"{path}/{k}"),), _cell(k, obj[k], f"{path}/{k}", u), (u.by_suffix(k)[1],))
+            for k in keys if k in obj and _scalar(obj[k])]
+
+
+def _qtable(rows: list[tuple], caption: tuple = ()) -> Table:
+    return Table((("Quantity",), ("Value",), ("Unit",)), tuple(rows), caption=caption, numeric=(1,))
+
+
+def _record_table(records: list[dict], path: str, cols: tuple[str, ...], u: Units, caption: tuple = ()) -> Table:
+    cols = tuple(k for k in cols if any(k in r for r in records))
+    header = tuple((_label(k, f"{path}/{_first(records, k)}/{k}"),
+                    f" [{u.by_suffix(k)[1]}]" if u.by_suffix(k)[1] else "") for k in cols)
+    rows = tuple(tuple(_cell(k, r[k], f"{path}/{n}/{k}", u) if k in r else ("—",) for k in cols)
+                 for n, r in enumerate(records))
+    numeric = tuple(i for i, k in enumerate(cols) if any(isinstance(r.get(k), (int, float))
+                                                         and not isinstance(r.get(k), bool) for r in records))
+    return Table(header, rows, caption=caption, numeric=numeric)
+
+
+_MISSING = object()
+
+
+def _get(obj: dict, key: str) -> Any:
+    for part in key.split("/"):
+        if not isinstance(obj, dict) or part not in obj:
+            return _MISSING
+        obj = obj[part]
+    return obj
+
+
+def _design_blocks(part: dict, u: Units) -> list:
+    blocks: list = [Para(("The design check as run by the tool: for each segment and plane, the formula and clause "
+                          "used, the numbers put into it, the resistance and the utilisation.",))]
+    blocks.append(_qtable(_rows(part, "design", ("standard", "load_factor", "passed", "max_utilisation"), u)))
+    gov = part.get("governing")
+    if isinstance(gov, dict):
+        blocks.append(Heading(3, "Governing case"))
+        blocks.append(_qtable(_rows(gov, "design/governing", tuple(gov), u)))
+    checks = part.get("checks") or []
+    if checks:
+        blocks.append(Heading(3, "Checks"))
+        blocks.append(_record_table(checks, "design/checks", ("segment", "name", "axis", "kind", "N_Ed_N", "N_cr_N",
+                                                              "resistance_N", "utilisation", "passed", "governs"), u,
+                                    caption=("One row per segment and plane; the details of each follow.",)))
+        pairs: list[tuple[int, dict]] = []
+        for n, c in enumerate(checks):
+            if not any(c.get("formula") == o.get("formula") and c.get("clause") == o.get("clause") for _, o in pairs):
+                pairs.append((n, c))
+        blocks.append(Heading(3, "Formulas and clauses"))
+        blocks.append(Bullets(tuple(
+            (*_cell("clause", c.get("clause", ""), f"design/checks/{n}/clause", u), ": ",
+             *_cell("formula", c.get("formula", ""), f"design/checks/{n}/formula", u)) for n, c in pairs)))
+        blocks.append(Heading(3, "Numbers substituted"))
+        keys: list[str] = []
+        for c in checks:
+            for k, v in c.items():
+                if _scalar(v) and k not in ("standard", "clause", "formula") and k not in keys:
+                    keys.append(k)
+            for k, v in (c.get("details") or {}).items():
+                if _scalar(v) and f"details/{k}" not in keys:
+                    keys.append(f"details/{k}")
+        per = 3
+        for start in range(0, len(checks), per):
+            group = list(range(start, min(start + per, len(checks))))
+            header = (("Quantity",), *(("Check ", Q(n + 1, f"ord:{n + 1}", "", 6)) for n in group), ("Unit",))
+            rows = []
+            for k in keys:
+                leaf = k.split("/")[-1]
+                first = next(n for n in range(len(checks)) if _get(checks[n], k) is not _MISSING)
+                row = [(_label(leaf, f"design/checks/{first}/{k}"),)]
+                for n in group:
+                    v = _get(checks[n], k)
+                    row.append(("—",) if v is _MISSING else _cell(leaf, v, f"design/checks/{n}/{k}", u))
+                row.append((u.by_suffix(leaf)[1],))
+                rows.append(tuple(row))
+            blocks.append(Table(tuple(header), tuple(rows), numeric=tuple(range(1, len(group) + 1))))
+    notes = part.get("notes") or []
+    if notes:
+        blocks.append(Heading(3, "Notes"))
+        blocks.append(Bullets(tuple((T(t, f"json:design/notes/{i}"),) for i, t in enumerate(notes))))
+    if part.get("caution"):
+        blocks.append(Note((T(part["caution"], "json:design/caution"),)))
+    rest = {k: v for k, v in part.items() if k not in ("standard", "load_factor", "passed", "max_utilisation",
+                                                       "governing", "checks", "notes", "caution")}
+    if rest:
+        blocks.extend(generic_blocks(rest, "design", u))
+    return blocks
+
+
+_IMP_KEYS = ("analysis", "status", "success", "message", "critical_load_factor", "first_yield_load_factor",
+             "first_yield_source", "second_order_first_yield_load_factor", "fibre_first_yield_load_factor",
+             "limit_load_factor")
+_SO_KEYS = ("n_elements", "tolerance", "discretisation_error", "converged", "first_yield_height_m", "message")
+_PATH_KEYS = ("limit_load_factor", "limit_accuracy", "first_yield_load_factor", "first_yield_height_m",
+              "first_yield_offset_m", "control_height_m", "n_elements", "n_fibres", "n_steps", "n_iter",
+              "max_residual", "tolerance", "status", "success", "message")
+
+
+def _imperfect_blocks(part: list, u: Units) -> list:
+    blocks: list = [Para(("Second-order analysis of the column with its initial bow, as set out in the case: the "
+                          "elastic critical load, first yield and the ultimate (limit) load, compared per segment "
+                          "with the Euler load and the Perry-Robertson first-yield load.",))]
+    for i, r in enumerate(part):
+        p = f"imperfect/{i}"
+        axis = r.get("axis") or "in-plane"
+        blocks.append(Heading(3, f"{axis.capitalize()} axis" if axis != "in-plane" else "In-plane"))
+        blocks.append(_qtable(_rows(r, p, _IMP_KEYS, u)))
+        imp = r.get("imperfection")
+        if isinstance(imp, dict):
+            blocks.append(Heading(4, "Initial bow"))
+            blocks.append(_qtable(_rows(imp, f"{p}/imperfection", ("shape", "largest_bow_m", "amplitude_m", "ratio"),
+                                        u)))
+        comp = r.get("comparison") or []
+        if comp:
+            blocks.append(Heading(4, "Comparison per segment (forces)"))
+            blocks.append(_record_table(comp, f"{p}/comparison", ("segment", "axial_force_N", "critical_force_N",
+                                                                  "euler_force_N", "perry_force_N",
+                                                                  "first_yield_force_N", "limit_force_N", "note"), u))
+            blocks.append(Heading(4, "Comparison per segment (load factors)"))
+            blocks.append(_record_table(comp, f"{p}/comparison", ("segment", "critical_load_factor",
+                                                                  "euler_load_factor", "perry_load_factor",
+                                                                  "first_yield_load_factor", "limit_load_factor"), u))
+        so = r.get("second_order")
+        if isinstance(so, dict):
+            blocks.append(Heading(4, "Second-order elastic analysis"))
+            blocks.append(_qtable(_rows(so, f"{p}/second_order", _SO_KEYS, u)))
+        path = r.get("path")
+        if isinstance(path, dict):
+            blocks.append(Heading(4, "Nonlinear path"))
+            blocks.append(_qtable(_rows(path, f"{p}/path", _PATH_KEYS, u)))
+        for k, w in enumerate(r.get("warnings") or []):
+            blocks.append(Note((T(w, f"json:{p}/warnings/{k}"),), "warning"))
+    return blocks
+
+
+def _default_figures(name: str, res: CaseResults, display: DisplayUnits) -> list:
+    """Figures of the optional parts drawn by the plotting functions that exist for them."""
+    value = res.extras.get(name)
+    if value is None:
+        return []
+    if name == "design":
+        from ..plot.design import plot_utilisation
+
+        ax = plot_utilisation(value)
+        return [(ax.figure, "Utilisation of every check; the dashed line marks a utilisation of one.")]
+    if name == "imperfect":
+        from ..plot import imperfect as plots
+
+        out = []
+        for axis, r in value.items():
+            out.append((plots.plot_path(r, length_unit=(display.length, display.length_si)),
+                        f"Load factor against lateral deflection at the control height, {axis} axis."))
+            if any(c.variable_force > 0 for c in r.comparison):
+                out.append((plots.plot_comparison(r), f"Load factors compared, {axis} axis: elastic critical, "
+                                                      "Euler, Perry-Robertson, first yield and ultimate."))
+        return out
+    return []
+
+
+def _optional_part(name: str, part: Any, res: CaseResults, u: Units, display: DisplayUnits, figures: bool) -> Part:
     titles = {"imperfect": "Imperfect column", "design": "Design check"}
     title = titles.get(name) or name.replace("_", " ").capitalize()
-    blocks: list = []
-    intro = {
-        "imperfect": ("Second-order elastic analysis of the column with its initial bow, as set out in the case; "
-                      "the figures below are read from the results of that analysis.",),
-        "design": ("The design check as run by the tool: formula and clause, the numbers put into it, the "
-                   "resistance and the utilisation, for each case checked.",),
-    }.get(name)
-    if intro:
-        blocks.append(Para(intro))
-    blocks.extend(generic_blocks(part, name, u))
-    for fig, caption in (PART_FIGURES[name](part, display) if name in PART_FIGURES else []):
-        blocks.append(Figure(_svg_of(fig), (caption,) if isinstance(caption, str) else tuple(caption), name))
+    if name == "design" and isinstance(part, dict):
+        blocks = _design_blocks(part, u)
+    elif name == "imperfect" and isinstance(part, list):
+        blocks = _imperfect_blocks(part, u)
+    else:
+        blocks = generic_blocks(part, name, u)
+    if figures:
+        figs = PART_FIGURES[name](res, part, display) if name in PART_FIGURES else _default_figures(name, res,
+                                                                                                      display)
+        for k, (fig, caption) in enumerate(figs):
+            blocks.append(Figure(_svg_of(fig), (caption,) if isinstance(caption, str) else tuple(caption),
+                                 f"{name}-{k + 1}"))
     return Part(name, title, blocks)
 
 
@@ -523,14 +685,14 @@ def _closing(data: dict, warnings: list[str]) -> Part:
 
 
 def report_parts(res: CaseResults, data: dict, u: Units, sketch: str | None, mode_figures: list,
-                 warnings: list[str]) -> list[Part]:
-    """All parts of the report, in order."""
+                 warnings: list[str], figures: bool = True) -> list[Part]:
+    """All parts of the report, in order (``figures``: draw the figures of the optional parts)."""
     parts = [_inputs(res, u, sketch), _method(res, data, u), _buckling(res, data, u, mode_figures)]
     for name in ("imperfect", "design"):
         if name in data:
-            parts.append(_optional_part(name, data[name], u, res.case.display))
+            parts.append(_optional_part(name, data[name], res, u, res.case.display, figures))
     for name, value in data.items():
         if name not in KNOWN_PARTS and name not in ("imperfect", "design") and isinstance(value, (dict, list)):
-            parts.append(_optional_part(name, value, u, res.case.display))
+            parts.append(_optional_part(name, value, res, u, res.case.display, figures))
     parts.append(_closing(data, warnings))
     return parts

@@ -95,6 +95,11 @@ def inline(parts) -> str:
     return "".join(out)
 
 
+def _numeric(cell) -> bool:
+    """A cell set as a number: quantities and punctuation, no text from results."""
+    return not any(isinstance(p, T) and p.text not in ("rigid", "free", "yes", "no") for p in cell)
+
+
 def _heading_text(h: Heading) -> str:
     return inline((h.text,))
 
@@ -114,7 +119,7 @@ def _block(b) -> str:
     if isinstance(b, Table):
         num = set(b.numeric)
         head = "".join(f'<th{" class=n" if i in num else ""}>{inline(h)}</th>' for i, h in enumerate(b.header))
-        body = "".join("<tr>" + "".join(f'<td{" class=n" if i in num else ""}>{inline(c)}</td>'
+        body = "".join("<tr>" + "".join(f'<td{" class=n" if i in num and _numeric(c) else ""}>{inline(c)}</td>'
                                         for i, c in enumerate(row)) + "</tr>" for row in b.rows)
         note = f'<p class="tnote">{inline(b.caption)}</p>' if b.caption else ""
         return f'<div class="table"><table><thead><tr>{head}</tr></thead><tbody>{body}</tbody></table>{note}</div>'
