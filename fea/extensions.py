@@ -11,7 +11,7 @@ from __future__ import annotations
 _LOADED = False
 
 #: Modules that register optional analyses, in import order.
-MODULES: tuple[str, ...] = ("fea.io.design_io", "fea.report.command")
+MODULES: tuple[str, ...] = ("fea.io.design_io", "fea.report.command", "fea.study.commands")
 
 
 def load() -> None:
