@@ -29,7 +29,7 @@ from ..solve.eigen import DEFAULT_TOL, buckling
 
 from scipy.linalg.lapack import dpbtrf
 
-__all__ = ["SpringModel", "converged_level", "effective_length_factors", "spring_dof"]
+__all__ = ["SpringModel", "converged_level", "effective_length_factors", "segment_forces", "spring_dof"]
 
 KIND_DOF = {"lateral": 0, "rotation": 1}
 
@@ -49,23 +49,30 @@ def spring_dof(mesh, column: Column, restraint: int, kind: str) -> int:
     return 2 * node + KIND_DOF[kind]
 
 
-def effective_length_factors(column: Column, load_factor: float) -> np.ndarray:
+def segment_forces(column: Column) -> tuple[np.ndarray, np.ndarray]:
+    """Permanent and variable (load factor 1) compression just above each segment's bottom [N]."""
+    tolx = 1e-9 * column.height
+    xs = np.array([a + tolx for a, _b in column.segment_bounds()])
+    return column.axial_force(xs, permanent=True), column.axial_force(xs, permanent=False)
+
+
+def effective_length_factors(column: Column, load_factor) -> np.ndarray:
     """K of every segment at ``load_factor`` (NaN where not in compression), as :func:`buckling` defines it.
 
     ``K = (pi / L) sqrt(E I_ref / N_cr)`` with ``N_cr = N_perm + lam N_var`` taken
     just above the segment's bottom (the largest compression in the segment).
+    ``load_factor`` may be an array; the result has one more axis (segments).
+    A load factor of 0 or NaN gives NaN.
     """
-    tolx = 1e-9 * column.height
-    out = np.full(len(column.segments), np.nan)
-    if not (load_factor > 0 and math.isfinite(load_factor)):
-        return out
-    for i, (s, (a, _b)) in enumerate(zip(column.segments, column.segment_bounds())):
-        xs = np.array([a + tolx])
-        Ncr = float(column.axial_force(xs, permanent=True)[0]) + load_factor * float(
-            column.axial_force(xs, permanent=False)[0])
-        if Ncr > 0:
-            out[i] = math.pi / s.length * math.sqrt(s.E * s.I_ref / Ncr)
-    return out
+    lam = np.asarray(load_factor, dtype=float)
+    Np, Nv = segment_forces(column)
+    L = np.array([s.length for s in column.segments])
+    EI = np.array([s.E * s.I_ref for s in column.segments])
+    Ncr = Np + lam[..., None] * Nv
+    good = (lam[..., None] > 0) & np.isfinite(lam[..., None]) & (Ncr > 0)
+    with np.errstate(invalid="ignore", divide="ignore"):
+        K = np.pi / L * np.sqrt(EI / np.where(good, Ncr, np.nan))
+    return np.where(good, K, np.nan)
 
 
 @dataclass(frozen=True)

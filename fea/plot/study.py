@@ -1,0 +1,170 @@
+"""Charts of restraint studies: sweep curves, two-parameter contour charts, brace-stiffness curves.
+
+Consumes :class:`fea.study.sweep.SweepResult` and :class:`fea.study.brace.BraceResult`;
+never recomputes physics.  Stiffnesses and lengths are drawn in the case's
+display units.  Save with :func:`fea.plot.save_figure`.
+"""
+
+from __future__ import annotations
+
+import math
+
+import numpy as np
+from matplotlib.figure import Figure
+
+from ..cautions import CAUTION
+
+__all__ = ["plot_sweep", "plot_brace"]
+
+
+def _scale_of(key, display):
+    """(factor to divide SI by, unit label) for a key's values in display units."""
+    d = display
+    dim = key.dimension
+    if d is None:
+        return 1.0, key.si_unit
+    table = {
+        "translational stiffness": (d.force_si / d.length_si, f"{d.force}/{d.length}"),
+        "rotational stiffness": (d.force_si * d.length_si, f"{d.force}*{d.length}/rad"),
+        "length": (d.length_si, d.length),
+        "force": (d.force_si, d.force),
+        "force per length": (d.force_si / d.length_si, f"{d.force}/{d.length}"),
+        "second moment of area": (d.length_si**4 if d.length != "m" else 1e-12, "mm^4" if d.length == "m"
+                                  else f"{d.length}^4"),
+        "stress": (1e6, "MPa") if d.length in ("m", "mm", "cm") else (6894757.293168361, "ksi"),
+    }
+    return table.get(dim, (1.0, key.si_unit))
+
+
+def _caption(fig: Figure) -> None:
+    fig.text(0.01, 0.005, CAUTION, fontsize=6, color="0.35", wrap=True, va="bottom")
+
+
+def plot_sweep(res, title: str = "", display=None) -> Figure:
+    """One parameter: load factor and K against the parameter.  Two: contour charts of K and load factor."""
+    fig = Figure(figsize=(10, 4.6), layout="constrained")
+    fig.get_layout_engine().set(h_pad=0.12)
+    if len(res.ranges) == 1:
+        _sweep_1d(fig, res, display)
+    else:
+        _sweep_2d(fig, res, display)
+    fig.suptitle(title or "Sweep", fontsize=11)
+    _caption(fig)
+    return fig
+
+
+def _ends_note(ax, r, y, label_fmt, colour) -> None:
+    """Free / rigid values of a spring range as dashed horizontal lines."""
+    for i, v in enumerate(r.values):
+        if r.key.is_spring and (v == 0 or math.isinf(v)) and np.isfinite(y[i]):
+            name = "free" if v == 0 else "rigid"
+            ax.axhline(y[i], ls="--", lw=0.8, color=colour, alpha=0.7)
+            ax.annotate(f"{name}: {label_fmt(y[i])}", xy=(0.01 if v == 0 else 0.99, y[i]),
+                        xycoords=("axes fraction", "data"), ha="left" if v == 0 else "right",
+                        va="bottom", fontsize=7, color=colour)
+
+
+def _sweep_1d(fig: Figure, res, display) -> None:
+    r = res.ranges[0]
+    f, unit = _scale_of(r.key, display)
+    m = r.finite
+    x = r.values[m] / f
+    ax1, ax2 = fig.subplots(1, 2)
+    g = res.governing
+    ax1.plot(x, g[m], color="C0", lw=1.6, label="governing")
+    if len(res.axes) > 1:
+        for j, a in enumerate(res.axes):
+            ax1.plot(x, res.load_factors[a][m], lw=0.9, ls=":", color=f"C{j + 1}", label=f"{a} axis")
+    _ends_note(ax1, r, g, lambda v: f"{v:.4g}", "C0")
+    ax1.set_ylabel("lowest load factor [-]")
+    Kg = res.K_governing()
+    for j, s in enumerate(res.segments):
+        ax2.plot(x, Kg[m, j], lw=1.4, color=f"C{j}", label=f"segment {s + 1}")
+        _ends_note(ax2, r, Kg[:, j], lambda v: f"K = {v:.4f}", f"C{j}")
+    ax2.set_ylabel("effective-length factor K (governing plane) [-]")
+    for ax in (ax1, ax2):
+        if r.scale == "log":
+            ax.set_xscale("log")
+        ax.set_xlabel(f"{r.key.text} [{unit}]")
+        ax.grid(True, which="both", lw=0.3, alpha=0.6)
+        ax.legend(fontsize=8, loc="best")
+    ax1.set_title("load factor", fontsize=10)
+    ax2.set_title("effective-length factor", fontsize=10)
+
+
+def _sweep_2d(fig: Figure, res, display) -> None:
+    r1, r2 = res.ranges
+    f1, u1 = _scale_of(r1.key, display)
+    f2, u2 = _scale_of(r2.key, display)
+    m1, m2 = r1.finite, r2.finite
+    X, Y = np.meshgrid(r1.values[m1] / f1, r2.values[m2] / f2, indexing="ij")
+    Kg = res.K_governing()[np.ix_(m1, m2)][..., 0]
+    lam = res.governing[np.ix_(m1, m2)]
+    ax1, ax2 = fig.subplots(1, 2)
+    finite = np.isfinite(Kg)
+    if np.any(finite):
+        lo, hi = np.nanmin(Kg), np.nanmax(Kg)
+        levels = np.unique(np.round(np.linspace(lo, hi, 12), 3))
+        cf = ax1.contourf(X, Y, Kg, levels=24, cmap="viridis_r")
+        cs = ax1.contour(X, Y, Kg, levels=levels, colors="k", linewidths=0.6)
+        ax1.clabel(cs, fmt="%.3f", fontsize=7)
+        fig.colorbar(cf, ax=ax1, label="K [-]", shrink=0.9)
+    ax1.set_title(f"K of segment {res.segments[0] + 1} (governing plane)", fontsize=10)
+    cf2 = ax2.contourf(X, Y, lam, levels=24, cmap="magma")
+    cs2 = ax2.contour(X, Y, lam, levels=10, colors="w", linewidths=0.5)
+    ax2.clabel(cs2, fmt="%.4g", fontsize=7)
+    fig.colorbar(cf2, ax=ax2, label="lowest load factor [-]", shrink=0.9)
+    ax2.set_title("lowest load factor", fontsize=10)
+    for ax in (ax1, ax2):
+        if r1.scale == "log":
+            ax.set_xscale("log")
+        if r2.scale == "log":
+            ax.set_yscale("log")
+        ax.set_xlabel(f"{r1.key.text} [{u1}]")
+        ax.set_ylabel(f"{r2.key.text} [{u2}]")
+    ends = []
+    for r in (r1, r2):
+        if r.key.is_spring and (np.any(r.values == 0) or np.any(np.isinf(r.values))):
+            ends.append(r.key.text)
+    if ends:
+        fig.text(0.99, 0.005, "free / rigid ends of " + ", ".join(ends) + " are in the table, not drawn",
+                 fontsize=6, ha="right", va="bottom", color="0.35")
+
+
+def plot_brace(res, title: str = "", display=None) -> Figure:
+    """Load factor against brace stiffness, with the threshold, the target fraction and Winter's rule."""
+    from ..study.paths import parse_key
+
+    fig = Figure(figsize=(7.5, 4.8), layout="constrained")
+    ax = fig.subplots()
+    key = parse_key(f"restraint[1].{res.kind}")
+    f, unit = _scale_of(key, display)
+    ratio = res.curve_load_factor / res.load_factor_rigid
+    ax.plot(res.curve_k / f, ratio, color="C0", lw=1.6, label="this column (braces varied together)")
+    ax.axhline(1.0, color="0.4", lw=0.8, ls="--")
+    ax.annotate(f"rigid braces: load factor {res.load_factor_rigid:.4g}", xy=(0.01, 1.0),
+                xycoords=("axes fraction", "data"), va="bottom", fontsize=7, color="0.3")
+    marks = []
+    if res.threshold:
+        marks.append((res.threshold, f"threshold ({res.eps:.0e} of rigid)", "C3", "-"))
+    if res.fraction_stiffness and res.fraction < 1:
+        marks.append((res.fraction_stiffness, f"{100 * res.fraction:g}% of rigid", "C2", "-."))
+    if res.kind == "lateral" and math.isfinite(res.winter_stiffness):
+        marks.append((res.winter_stiffness, f"Winter 1960: {res.winter_coefficient:.3f} P/Lb", "C1", ":"))
+    if res.kind == "lateral" and math.isfinite(res.aisc_stiffness):
+        marks.append((res.aisc_stiffness, "AISC 360-16 App. 6 point bracing (P_r)", "C4", "--"))
+    for k, label, c, ls in marks:
+        ax.axvline(k / f, color=c, ls=ls, lw=1.1, label=f"{label}: {k / f:.4g} {unit}")
+    ax.set_xscale("log")
+    ax.set_xlabel(f"brace stiffness [{unit}]")
+    ax.set_ylabel("load factor / load factor with rigid braces [-]")
+    lo = np.nanmin(ratio)
+    ax.set_ylim(max(0.0, lo - 0.05), 1.05)
+    ax.grid(True, which="both", lw=0.3, alpha=0.6)
+    ax.legend(fontsize=7, loc="lower right")
+    stations = ", ".join(f"{s / (display.length_si if display else 1):.4g}" for s in res.stations)
+    ax.set_title(f"{res.axis or 'in-plane'}: {res.kind} brace(s) at {stations} "
+                 f"{display.length if display else 'm'}", fontsize=10)
+    fig.suptitle(title or "Brace stiffness", fontsize=11)
+    _caption(fig)
+    return fig

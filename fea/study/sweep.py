@@ -1,0 +1,419 @@
+"""Sweeps of one or two case inputs: load factor and effective-length factors over a range or grid.
+
+Two ways to a point:
+
+* **spring path** - every swept input is a restraint spring.  One parameter:
+  :class:`fea.solve.spring.SpringStudy` gives every value from one
+  eigen-decomposition per plane.  Two parameters: :class:`SpringModel` holds one
+  assembled mesh per plane and each grid point costs a few banded Cholesky
+  factorisations (inertia bisection); rows of the grid go to the process pool.
+* **re-solve path** - any other input (a length, a load, an I, E...): the
+  case document is edited at the key path, written back to TOML, parsed and
+  checked again, and solved from scratch by :func:`fea.solve.eigen.buckling`
+  at the case's tolerance.  Points go to the process pool in chunks.
+
+Both give, for each bending plane, the lowest load factor and the K of chosen
+segments; the governing load factor is the lowest over the planes.  A point
+where the column is a mechanism (or its permanent loads alone buckle it) has
+load factor 0 and K NaN; a point that cannot be analysed has NaN and a note.
+
+Parallel runs use :class:`concurrent.futures.ProcessPoolExecutor`; each point
+is computed by the same function whichever process runs it, so parallel and
+serial sweeps give identical numbers.  Pure apart from the worker processes:
+no files, no printing (progress is reported through a callback).
+"""
+
+from __future__ import annotations
+
+import math
+import os
+from concurrent.futures import ProcessPoolExecutor, as_completed
+from dataclasses import dataclass
+
+import numpy as np
+
+from ..errors import CaseError, FeaError, ModelError
+from ..io.case import parse_case
+from ..solve.eigen import buckling
+from ..solve.spring import SpringStudy
+from .paths import KeyPath, dump_toml, with_values
+from .springs import SpringModel, converged_level, effective_length_factors
+from .target import StudyCase
+
+__all__ = ["ParameterRange", "SweepResult", "make_range", "sweep", "reference_stiffness", "SCALES",
+           "LOG_SPAN_BELOW", "LOG_SPAN_ABOVE"]
+
+SCALES = ("linear", "log")
+#: A "free" end of a logarithmic spring range starts at this fraction of the reference stiffness.
+LOG_SPAN_BELOW = 1e-2
+#: A "rigid" end of a logarithmic spring range ends at this multiple of the reference stiffness.
+LOG_SPAN_ABOVE = 1e4
+
+
+@dataclass(frozen=True)
+class ParameterRange:
+    """Values of one swept input (SI).
+
+    Attributes
+    ----------
+    key : the key path
+    values : (n,) values in sweep order; a spring range may start at 0 (free)
+        and end at inf (rigid)
+    scale : "linear" or "log" (spacing of the finite values)
+    """
+
+    key: KeyPath
+    values: np.ndarray
+    scale: str
+
+    @property
+    def finite(self) -> np.ndarray:
+        """Mask of the values that can be drawn on a logarithmic axis (not free, not rigid)."""
+        v = self.values
+        return np.isfinite(v) & ((v > 0) if self.scale == "log" else np.ones(v.shape, bool))
+
+
+def reference_stiffness(study: StudyCase, key: KeyPath) -> float:
+    """A natural scale for a spring: E I / H (rotation) or E I / H^3 (lateral).
+
+    ``E I`` is that of the segment at the restraint's station and ``H`` the
+    column height.  Used only to place the finite part of a free-to-rigid range.
+    """
+    tg = study.targets(key)[0]
+    col = study.case.column(tg.axis)
+    at = col.restraints[tg.restraint].at
+    seg = col.segments[-1]
+    for s, (a, b) in zip(col.segments, col.segment_bounds()):
+        if a - 1e-9 <= at <= b + 1e-9:
+            seg = s
+            break
+    H = col.height
+    return seg.E * seg.I_ref / (H if key.kind == "rotation" else H**3)
+
+
+def make_range(study: StudyCase, key: KeyPath, start: float, stop: float, points: int,
+               scale: str = "linear") -> ParameterRange:
+    """Values from ``start`` to ``stop`` (SI; 0 / inf for a free / rigid spring end).
+
+    A logarithmic spring range with a free end starts its finite values at
+    ``LOG_SPAN_BELOW`` times :func:`reference_stiffness` (or 1e-4 of the other end,
+    if lower) and one with a rigid end ends them at ``LOG_SPAN_ABOVE`` times it
+    (or 1e4 times the other end, if higher); the free and rigid values
+    themselves are the first and last points.
+    """
+    if scale not in SCALES:
+        raise CaseError(f"{key.text}.scale", f"expected 'linear' or 'log', got {scale!r}")
+    if isinstance(points, bool) or not isinstance(points, int) or not 2 <= points <= 100_000:
+        raise CaseError(f"{key.text}.points", f"expected a whole number from 2 to 100000, got {points!r}")
+    for v, name in ((start, "from"), (stop, "to")):
+        if math.isnan(v) or (math.isinf(v) and not key.is_spring):
+            raise CaseError(f"{key.text}.{name}", f"{v!r} is not a finite value")
+    if start == stop:
+        raise CaseError(key.text, "the range is empty: 'from' equals 'to'")
+    lo_end, hi_end = [], []
+    a, b = start, stop
+    if scale == "linear":
+        if math.isinf(a) or math.isinf(b):
+            raise CaseError(f"{key.text}.scale", "a range with a rigid end needs scale = 'log'")
+        return ParameterRange(key, np.linspace(a, b, points), scale)
+    ref = reference_stiffness(study, key) if key.is_spring else None
+    if key.is_spring and min(a, b) == 0.0:
+        other = max(a, b)
+        lo_end = [0.0]
+        first = min(LOG_SPAN_BELOW * ref, other * 1e-4) if math.isfinite(other) else LOG_SPAN_BELOW * ref
+    elif min(a, b) <= 0.0:
+        raise CaseError(f"{key.text}.from", "a logarithmic range needs positive values")
+    else:
+        first = min(a, b)
+    if key.is_spring and math.isinf(max(a, b)):
+        hi_end = [math.inf]
+        last = max(LOG_SPAN_ABOVE * ref, first * 1e4)
+    else:
+        last = max(a, b)
+    n_mid = points - len(lo_end) - len(hi_end)
+    if n_mid < 2:
+        raise CaseError(f"{key.text}.points", f"{points} points leave fewer than 2 finite values")
+    v = np.concatenate([lo_end, np.logspace(math.log10(first), math.log10(last), n_mid), hi_end])
+    if a > b:
+        v = v[::-1]
+    return ParameterRange(key, v, scale)
+
+
+@dataclass(frozen=True)
+class SweepResult:
+    """A one- or two-parameter sweep.
+
+    Attributes
+    ----------
+    ranges : (ParameterRange,) or (ParameterRange, ParameterRange)
+    axes : bending planes of the case
+    segments : chosen segments (0-based)
+    load_factors : axis -> array of shape (n1,) or (n1, n2) [-]
+    K : axis -> array of shape (n1, n_chosen) or (n1, n2, n_chosen) [-]
+    governing : lowest load factor over the planes, shape (n1,) or (n1, n2)
+    governing_axis : index into ``axes`` of the governing plane, same shape
+    method : "spring" or "re-solve"
+    tolerance : mesh tolerance used
+    notes : ((flat point index, message), ...) for points that could not be analysed
+    """
+
+    ranges: tuple[ParameterRange, ...]
+    axes: tuple[str, ...]
+    segments: tuple[int, ...]
+    load_factors: dict
+    K: dict
+    governing: np.ndarray
+    governing_axis: np.ndarray
+    method: str
+    tolerance: float
+    notes: tuple[tuple[int, str], ...] = ()
+
+    @property
+    def shape(self) -> tuple[int, ...]:
+        return tuple(r.values.size for r in self.ranges)
+
+    def K_governing(self) -> np.ndarray:
+        """K of the chosen segments in the governing plane of each point, shape (..., n_chosen)."""
+        stack = np.stack([self.K[a] for a in self.axes])  # (n_axes, ..., n_chosen)
+        idx = self.governing_axis[None, ..., None]
+        return np.take_along_axis(stack, np.broadcast_to(idx, (1,) + stack.shape[1:]), axis=0)[0]
+
+
+# ---------------------------------------------------------------------------
+# running tasks serially or in a process pool, results in order
+
+
+def _run_tasks(fn, tasks: list, jobs: int, progress=None, weights: list[int] | None = None) -> list:
+    weights = weights or [1] * len(tasks)
+    total = sum(weights)
+    done = 0
+    out: list = [None] * len(tasks)
+    if progress:
+        progress(0, total)
+    if jobs <= 1 or len(tasks) <= 1:
+        for i, t in enumerate(tasks):
+            out[i] = fn(*t)
+            done += weights[i]
+            if progress:
+                progress(done, total)
+        return out
+    with ProcessPoolExecutor(max_workers=jobs) as ex:
+        futures = {ex.submit(fn, *t): i for i, t in enumerate(tasks)}
+        for f in as_completed(futures):
+            i = futures[f]
+            out[i] = f.result()
+            done += weights[i]
+            if progress:
+                progress(done, total)
+    return out
+
+
+def _chunks(n: int, jobs: int, per_job: int = 8) -> list[tuple[int, int]]:
+    size = max(1, math.ceil(n / max(1, jobs * per_job)))
+    return [(a, min(n, a + size)) for a in range(0, n, size)]
+
+
+def default_jobs() -> int:
+    """Worker processes to use: the CPUs this process may run on."""
+    try:
+        return max(1, len(os.sched_getaffinity(0)))
+    except AttributeError:  # pragma: no cover - not on Linux
+        return max(1, os.cpu_count() or 1)
+
+
+# ---------------------------------------------------------------------------
+# re-solve path
+
+
+def _resolve_points(doc: dict, key_texts: tuple[str, ...], points: list[tuple[float, ...]],
+                    segments: tuple[int, ...], tol: float | None):
+    """Worker: parse and solve the case at each point; returns (lam (n_pts, n_axes), K, notes)."""
+    from .paths import parse_key
+
+    keys = tuple(parse_key(t) for t in key_texts)
+    rows_lam, rows_K, notes = [], [], []
+    for p, values in enumerate(points):
+        try:
+            case = parse_case(dump_toml(with_values(doc, keys, values)))
+            lam, Ks = [], []
+            for axis, col in case.planes:
+                try:
+                    res = buckling(col, n_modes=1, tol=tol or case.tolerance, axis=axis)
+                    lam.append(res.load_factor)
+                    Ks.append([res.segments[i].effective_length_factor or math.nan for i in segments])
+                except ModelError as exc:
+                    if exc.field == "restraints" or "permanent loads alone" in exc.message:
+                        lam.append(0.0)
+                        Ks.append([math.nan] * len(segments))
+                    else:
+                        raise
+            rows_lam.append(lam)
+            rows_K.append(Ks)
+        except FeaError as exc:
+            rows_lam.append(None)
+            rows_K.append(None)
+            notes.append((p, str(exc)))
+    return rows_lam, rows_K, notes
+
+
+def _sweep_resolve(study: StudyCase, ranges, segments, tol, jobs, progress):
+    grids = np.meshgrid(*[r.values for r in ranges], indexing="ij")
+    flat = list(zip(*[g.ravel() for g in grids]))
+    flat = [tuple(float(v) for v in p) for p in flat]
+    keys = tuple(r.key.text for r in ranges)
+    n_ax = len(study.axes)
+    chunks = _chunks(len(flat), jobs)
+    tasks = [(study.doc, keys, flat[a:b], segments, tol) for a, b in chunks]
+    parts = _run_tasks(_resolve_points, tasks, jobs, progress, [b - a for a, b in chunks])
+    lam = np.full((len(flat), n_ax), np.nan)
+    K = np.full((len(flat), n_ax, len(segments)), np.nan)
+    notes = []
+    for (a, _b), (rl, rk, nt) in zip(chunks, parts):
+        for j, (l_, k_) in enumerate(zip(rl, rk)):
+            if l_ is not None:
+                lam[a + j] = l_
+                K[a + j] = k_
+        notes += [(a + p, m) for p, m in nt]
+    return lam, K, tuple(notes)
+
+
+# ---------------------------------------------------------------------------
+# spring path
+
+
+def _spring_rows(column, springs, level: int, grid: np.ndarray) -> np.ndarray:
+    """Worker: load factors at rows of spring values ``grid`` (n, m) on one mesh."""
+    model = SpringModel.build(column, springs, level)
+    return np.array([model.load_factor(row) for row in grid])
+
+
+def _plane_spring_targets(study: StudyCase, ranges, axis: str):
+    """(param index, SpringTarget) of the swept springs that act in plane ``axis``."""
+    out = []
+    for p, r in enumerate(ranges):
+        for tg in study.targets(r.key):
+            if tg.axis == axis:
+                out.append((p, tg))
+    return out
+
+
+def _one_spring(column, tg, values: np.ndarray, tol: float) -> np.ndarray:
+    k = np.array([tg.stiffness(v) for v in values])
+    k_min = float(np.min(k))
+    k_max = float(np.max(k))
+    study = SpringStudy.build(column, tg.restraint, tg.kind, k_min, k_max, tol)
+    ok = 1.0 + np.minimum(k - study.k_ref, 0.0) * float(np.sum(study.w2)) > 1e-9
+    lam = np.zeros(k.shape)
+    if np.any(ok):
+        lam[ok] = study.load_factors(k[ok])
+    return lam
+
+
+def _sweep_springs(study: StudyCase, ranges, segments, tol, jobs, progress):
+    shape = tuple(r.values.size for r in ranges)
+    n_ax = len(study.axes)
+    lam = np.full(shape + (n_ax,), np.nan)
+    pending = []  # (axis index, column, springs, level, grid rows)
+    for ia, (axis, col) in enumerate(study.case.planes):
+        acting = _plane_spring_targets(study, ranges, axis)
+        params = sorted({p for p, _ in acting})
+        if not params:
+            lam[..., ia] = buckling(col, n_modes=1, tol=tol).load_factor
+        elif len(acting) == 1:
+            p, tg = acting[0]
+            vals = _one_spring(col, tg, ranges[p].values, tol)
+            if len(ranges) == 1:
+                lam[:, ia] = vals
+            elif p == 0:
+                lam[:, :, ia] = vals[:, None]
+            else:
+                lam[:, :, ia] = vals[None, :]
+        else:
+            springs = tuple((tg.restraint, tg.kind) for _, tg in acting)
+            levels = []
+            corner_vals = [(ranges[p].values.min(), ranges[p].values.max()) for p, _ in acting]
+            for ends in zip(*corner_vals):
+                c = col
+                for (p, tg), v in zip(acting, ends):
+                    c = c.with_restraint(tg.restraint, **{tg.kind: tg.stiffness(v)})
+                try:
+                    levels.append(converged_level(c, tol))
+                except FeaError:
+                    continue
+            level = max(levels) if levels else 3
+            grids = np.meshgrid(*[r.values for r in ranges], indexing="ij")
+            pts = np.stack([np.vectorize(tg.stiffness)(grids[p]) for p, tg in acting], axis=-1)
+            pending.append((ia, col, springs, level, pts))
+    if pending:
+        tasks, where = [], []
+        for ia, col, springs, level, pts in pending:
+            flat = pts.reshape(-1, pts.shape[-1])
+            for a, b in _chunks(flat.shape[0], jobs):
+                tasks.append((col, springs, level, flat[a:b]))
+                where.append((ia, a, b))
+        parts = _run_tasks(_spring_rows, tasks, jobs, progress, [b - a for _, a, b in where])
+        flats = {ia: np.full(int(np.prod(shape)), np.nan) for ia, *_ in pending}
+        for (ia, a, b), vals in zip(where, parts):
+            flats[ia][a:b] = vals
+        for ia, f in flats.items():
+            lam[..., ia] = f.reshape(shape)
+    K = np.full(shape + (n_ax, len(segments)), np.nan)
+    for ia, (axis, col) in enumerate(study.case.planes):
+        K[..., ia, :] = effective_length_factors(col, lam[..., ia])[..., list(segments)]
+    return lam.reshape(-1, n_ax), K.reshape(-1, n_ax, len(segments)), ()
+
+
+def sweep(study: StudyCase, ranges, segments=None, method: str = "auto", jobs: int = 1, progress=None,
+          tol: float | None = None) -> SweepResult:
+    """Sweep one or two inputs of a case.
+
+    Parameters
+    ----------
+    study : the case and its document
+    ranges : one or two :class:`ParameterRange`
+    segments : segment indices (0-based) whose K to report; default all
+    method : "auto" (spring path when every input is a restraint spring),
+        "spring" or "re-solve"
+    jobs : worker processes (1: serial, in this process)
+    progress : optional callback ``progress(done, total)``
+    tol : mesh tolerance (default: the case's)
+    """
+    ranges = tuple(ranges)
+    if not 1 <= len(ranges) <= 2:
+        raise CaseError("parameter", f"sweep one or two parameters, not {len(ranges)}")
+    if len(ranges) == 2 and ranges[0].key.text == ranges[1].key.text:
+        raise CaseError("parameter", "the two swept parameters are the same")
+    n_seg = len(study.case.segments)
+    segments = tuple(range(n_seg)) if segments is None else tuple(int(s) for s in segments)
+    for s in segments:
+        if not 0 <= s < n_seg:
+            raise CaseError("segments", f"segment {s + 1} does not exist (the case has {n_seg})")
+    tol = float(tol or study.case.tolerance)
+    all_springs = all(r.key.is_spring for r in ranges)
+    if method not in ("auto", "spring", "re-solve"):
+        raise CaseError("method", f"expected 'auto', 'spring' or 're-solve', got {method!r}")
+    if method == "spring" and not all_springs:
+        raise CaseError("method", "the spring path needs every swept input to be a restraint spring")
+    use_springs = all_springs and method != "re-solve"
+    for r in ranges:  # the key must exist in the case file (or be a spring of an existing restraint)
+        if r.key.is_spring:
+            study.targets(r.key)
+        else:
+            r.key.get(study.doc)
+    jobs = max(1, int(jobs))
+    if use_springs:
+        lam, K, notes = _sweep_springs(study, ranges, segments, tol, jobs, progress)
+    else:
+        lam, K, notes = _sweep_resolve(study, ranges, segments, tol, jobs, progress)
+    shape = tuple(r.values.size for r in ranges)
+    axes = study.axes
+    with np.errstate(invalid="ignore"):
+        filled = np.where(np.isnan(lam), np.inf, lam)
+        gov_idx = np.argmin(filled, axis=1)
+        gov = np.take_along_axis(lam, gov_idx[:, None], axis=1)[:, 0]
+    return SweepResult(
+        ranges=ranges, axes=axes, segments=segments,
+        load_factors={a: lam[:, i].reshape(shape) for i, a in enumerate(axes)},
+        K={a: K[:, i, :].reshape(shape + (len(segments),)) for i, a in enumerate(axes)},
+        governing=gov.reshape(shape), governing_axis=gov_idx.reshape(shape),
+        method="spring" if use_springs else "re-solve", tolerance=tol, notes=notes)
