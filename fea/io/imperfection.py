@@ -13,7 +13,9 @@ Registers two optional top-level tables with :data:`fea.io.case.EXTRA_SECTIONS`:
     of arc-length steps, default 200), ``tolerance`` (relative residual of the
     nonlinear path, default 1e-8), ``fibres`` (strips across the section, default
     40), ``elements`` (least number of elements of the nonlinear model, default
-    16), ``W`` / ``W_major`` / ``W_minor`` (elastic section moduli for segments
+    16), ``method`` (path following: ``"arc-length"`` (default), ``"load"``
+    (stops below a limit point, no ultimate load) or ``"displacement"`` (control
+    of the lateral displacement at the largest bow)), ``W`` / ``W_major`` / ``W_minor`` (elastic section moduli for segments
     without a section shape), ``note``.
 ``[lateral]``
     arrays of tables ``[[lateral.point]]`` (``at``, ``force``),
@@ -46,7 +48,8 @@ __all__ = ["ImperfectionSpec", "LateralSpec", "parse_imperfection", "parse_later
            "declares_imperfect", "run_imperfect", "imperfect_analysis", "plane_inputs"]
 
 IMPERFECTION_KEYS = {"bow", "shape", "offsets", "axis", "residual_stress", "hardening", "analysis", "steps",
-                     "tolerance", "fibres", "elements", "W", "W_major", "W_minor", "note"}
+                     "tolerance", "fibres", "elements", "method", "W", "W_major", "W_minor", "note"}
+METHODS = ("arc-length", "load", "displacement")
 DEFAULT_STEPS = 200
 DEFAULT_PATH_TOL = 1e-8
 DEFAULT_FIBRES = 40
@@ -91,6 +94,7 @@ class ImperfectionSpec:
     tolerance: float = DEFAULT_PATH_TOL
     fibres: int = DEFAULT_FIBRES
     elements: int = DEFAULT_ELEMENTS
+    method: str = "arc-length"
     W: dict = field(default_factory=dict)
     loads: LateralSpec = field(default_factory=LateralSpec)
 
@@ -239,6 +243,9 @@ def parse_imperfection(table: dict, doc: dict) -> ImperfectionSpec:
                          integer=True))
     elements = int(_number(table.get("elements", DEFAULT_ELEMENTS), "imperfection.elements", 4, 400,
                            "a whole number", integer=True))
+    method = table.get("method", "arc-length")
+    if method not in METHODS:
+        raise CaseError("imperfection.method", f"expected one of {', '.join(METHODS)}, got {method!r}")
     W = {}
     for key, ax in (("W", "in-plane"), ("W_major", "major"), ("W_minor", "minor")):
         if key in table:
@@ -248,7 +255,8 @@ def parse_imperfection(table: dict, doc: dict) -> ImperfectionSpec:
             W[ax] = v
     return ImperfectionSpec(imperfection=imp, axis=axis, residual_stress=float(rs), hardening=float(hard),
                             analysis=analysis, analysis_given="analysis" in table, steps=steps, tolerance=tol,
-                            fibres=fibres, elements=elements, W=W, loads=_load_actions(doc, H))
+                            fibres=fibres, elements=elements, method=method, W=W,
+                            loads=_load_actions(doc, H))
 
 
 def parse_lateral(table: dict, doc: dict) -> LateralSpec:
@@ -411,7 +419,7 @@ def run_imperfect(case, buckling_results=None) -> dict[str, ImperfectResult]:
         if spec.axis != "both" and axis not in (spec.axis, "in-plane"):
             continue
         col, imp, sections, actions, analysis, notes = plane_inputs(case, axis, spec)
-        opts = dict(max_steps=spec.steps, tolerance=spec.tolerance, min_elements=spec.elements)
+        opts = dict(max_steps=spec.steps, tolerance=spec.tolerance, min_elements=spec.elements, method=spec.method)
         try:
             known = next((b for b in (buckling_results or ()) if b.axis == axis), None)
             res = analyse_imperfect(col, imp, sections, actions, analysis=analysis, axis=axis, tol=case.tolerance,
