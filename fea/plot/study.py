@@ -37,13 +37,12 @@ def _scale_of(key, display):
 
 
 def _caption(fig: Figure) -> None:
-    fig.text(0.01, 0.005, CAUTION, fontsize=6, color="0.35", wrap=True, va="bottom")
+    fig.supxlabel(CAUTION, fontsize=6, color="0.35", x=0.01, ha="left", wrap=True)
 
 
 def plot_sweep(res, title: str = "", display=None) -> Figure:
     """One parameter: load factor and K against the parameter.  Two: contour charts of K and load factor."""
     fig = Figure(figsize=(10, 4.6), layout="constrained")
-    fig.get_layout_engine().set(h_pad=0.12)
     if len(res.ranges) == 1:
         _sweep_1d(fig, res, display)
     else:

@@ -230,8 +230,11 @@ def brace_stiffness(column: Column, restraints, kind: str = "lateral", fraction:
     P_design = Np + Nv
     lb, even = _supports(column, restraints)
     c = winter_coefficient(len(restraints))
-    centre = k_th if k_th else scale
-    ks = np.logspace(math.log10(centre) - 3, math.log10(centre) + 1.5, 91)
+    lb_, _ = _supports(column, restraints)
+    marks = [v for v in (k_th, k_f, (2.0 * P_rigid / lb_) if lb_ > 0 else None) if v and math.isfinite(v)]
+    if not marks:
+        marks = [scale]
+    ks = np.logspace(math.log10(min(marks)) - 1.5, math.log10(max(marks)) + 1.0, 121)
     curve = np.array([lam(k) for k in ks])
     return BraceResult(
         axis=axis, restraints=restraints, kind=kind, stations=stations, given_stiffness=given,

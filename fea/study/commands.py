@@ -166,6 +166,8 @@ def _stiff(v: float, kind: str, d) -> str:
         return "not reached"
     if math.isinf(v):
         return "rigid"
+    if v == 0:
+        return "free"
     if kind == "lateral":
         return f"{fmt(v / d.force_si * d.length_si)} {d.force}/{d.length}"
     return f"{fmt(v / (d.force_si * d.length_si))} {d.force}*{d.length}/rad"
