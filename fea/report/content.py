@@ -111,7 +111,7 @@ def header_rows(data: dict, case, date: str) -> list[tuple]:
     d = case.display
     return [
         (("Case file",), (T(data.get("case_file") or "(from text)", "json:case_file"),)),
-        (("SHA-256 of the case file",), (T(data["case_sha256"], "json:case_sha256"),)),
+        (("Hash of the case file, ", T("SHA-256", "name:SHA-256")), (T(data["case_sha256"], "json:case_sha256"),)),
         (("Program",), (T(data["tool"]["name"], "json:tool/name"), " version ",
                         T(data["tool"]["version"], "json:tool/version"))),
         (("Date of this report",), (T(date, "report:date"),)),
@@ -315,7 +315,7 @@ def _method(res: CaseResults, data: dict, u: Units) -> Part:
                         Em("K φ = λ G φ"), ", with ", Em("K"), " the elastic (plus spring and foundation) stiffness "
                         "and ", Em("G"), " the geometric stiffness of the variable loads; permanent loads enter ",
                         Em("K"), ". Solver used: ", "; ".join(f"{s}: {SOLVER_TEXT.get(s, s)}" for s in solvers),
-                        ". Modes are scaled so that the largest lateral displacement is +1.")))
+                        ". Each mode is scaled so that its largest lateral displacement is one, taken positive.")))
     blocks.append(Heading(3, "Effective-length factors"))
     blocks.append(Para(("For each segment ", Em("K"), " = (π / ", Em("L"), ") √(", Em("E I"), Sub("ref"), " / ",
                         Em("N"), Sub("cr"), ")",

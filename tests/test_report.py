@@ -1,0 +1,396 @@
+"""Calculation report (issue 7): content traced to the JSON result, Markdown parity, the subcommand,
+and the page as headless Chromium renders, screenshots and prints it."""
+
+from __future__ import annotations
+
+import html as html_module
+import math
+import os
+import re
+import shutil
+import subprocess
+import tempfile
+import xml.etree.ElementTree as ET
+from html.parser import HTMLParser
+from pathlib import Path
+
+import pytest
+
+from fea.cli import main
+from fea.io.case import load_case
+from fea.io.export import result_dict
+from fea.report import build_markdown, build_report
+from fea.units import to_display
+
+CASES = sorted((Path(__file__).resolve().parent.parent / "cases").glob("*.toml"))
+DATE = "2026-12-01"
+#: Published names with digits the report may print as they are.
+NAMES = {"SHA-256"}
+SUP = str.maketrans("⁰¹²³⁴⁵⁶⁷⁸⁹⁻", "0123456789-")
+NUMBER = re.compile(r"^(-?\d+)(?:\.(\d+))?(?: × 10([⁻⁰¹²³⁴⁵⁶⁷⁸⁹]+))?$")
+
+
+def _run(path: Path):
+    from fea.runner import run_case
+
+    case = load_case(path)
+    res = run_case(case)
+    return case, res, result_dict(res)
+
+
+class _Runs(dict):
+    """Each demo case run once, on first use: name -> (case, results, JSON dict, HTML)."""
+
+    def __missing__(self, name: str):
+        case, res, data = _run(next(p for p in CASES if p.stem == name))
+        self[name] = value = (case, res, data, build_report(res, data, date=DATE))
+        return value
+
+
+@pytest.fixture(scope="module")
+def runs() -> dict:
+    return _Runs()
+
+
+# -- parsing the page -------------------------------------------------------------------------------
+
+
+class _Page(HTMLParser):
+    """Collects elements carrying ``data-src`` with their text, text outside them, headings, attributes."""
+
+    VOID = {"meta", "link", "br", "img", "input", "hr", "path", "use", "rect", "line", "circle", "polygon",
+            "polyline", "stop", "ellipse"}
+
+    def __init__(self) -> None:
+        super().__init__(convert_charrefs=True)
+        self.stack: list[tuple[str, dict]] = []
+        self.sourced: list[dict] = []  # {"src", "u", "text", "in_svg"}
+        self.loose: list[str] = []      # text with digits outside any data-src element
+        self.headings: list[tuple[str, str]] = []
+        self.attrs: list[tuple[str, str, str]] = []
+        self._open: list[dict] = []
+        self._head: list | None = None
+
+    def handle_starttag(self, tag, attrs):
+        a = dict(attrs)
+        for k, v in attrs:
+            self.attrs.append((tag, k, v or ""))
+        if tag in self.VOID:
+            return
+        self.stack.append((tag, a))
+        if "data-src" in a:
+            rec = {"src": a["data-src"], "u": a.get("data-u", ""), "text": "",
+                   "in_svg": any(t == "svg" for t, _ in self.stack[:-1])}
+            self.sourced.append(rec)
+            self._open.append(rec)
+        if tag in ("h1", "h2", "h3", "h4"):
+            self._head = [tag, ""]
+
+    def handle_startendtag(self, tag, attrs):
+        for k, v in attrs:
+            self.attrs.append((tag, k, v or ""))
+
+    def handle_endtag(self, tag):
+        if tag in self.VOID:
+            return
+        while self.stack:
+            t, a = self.stack.pop()
+            if "data-src" in a:
+                self._open.pop()
+            if t == tag:
+                break
+        if self._head and tag == self._head[0]:
+            self.headings.append((self._head[0], self._head[1].strip()))
+            self._head = None
+
+    def handle_data(self, data):
+        tags = [t for t, _ in self.stack]
+        if "head" in tags or "style" in tags or "title" in tags:
+            return
+        if self._head is not None:
+            self._head[1] += data
+        if self._open:
+            for rec in self._open:
+                rec["text"] += data
+        elif re.search(r"[0-9]", data):
+            self.loose.append(data)
+
+
+def parse_page(html: str) -> _Page:
+    p = _Page()
+    p.feed(html)
+    p.close()
+    return p
+
+
+def _resolve(root, path: str):
+    obj = root
+    for part in path.split("/"):
+        if isinstance(obj, (list, tuple)):
+            obj = obj[int(part)]
+        elif isinstance(obj, dict):
+            obj = obj[part]
+        else:
+            obj = getattr(obj, part)
+    return obj
+
+
+def _close(text: str, expected: float) -> bool:
+    """The shown text equals ``expected`` to its last shown digit."""
+    m = NUMBER.match(text.replace("\u2009", "").replace("\u2212", "-").strip())
+    assert m, f"not a number as the report writes one: {text!r}"
+    whole, frac, exp = m.groups()
+    shown = float(f"{whole}.{frac}" if frac else whole)
+    scale = 10.0 ** int(exp.translate(SUP)) if exp else 1.0
+    half_ulp = 0.5 * 10.0 ** (-len(frac or "")) * scale
+    return abs(shown * scale - expected) <= half_ulp * (1 + 1e-9) + 1e-300
+
+
+def _check_value(text: str, value, unit: str) -> None:
+    if isinstance(value, bool):
+        assert text in ({"yes", "permanent"} if value else {"no", "variable"}), (text, value)
+    elif value is None:
+        assert text == "—"
+    elif isinstance(value, str):
+        assert text == value
+    elif math.isinf(value):
+        assert text == "rigid", (text, value)
+    elif value == 0 and text == "free":
+        pass
+    else:
+        expected = 100.0 * value if unit == "%" else (value if unit == "" else to_display(value, unit))
+        assert _close(text, expected), f"shown {text!r}, the source gives {expected!r} {unit}"
+
+
+def check_numbers(html: str, case, data: dict, warnings: list[str] = ()) -> int:
+    """Every number on the page sits in an element naming its source, and equals that source."""
+    page = parse_page(html)
+    assert not page.loose, f"numbers without a source on the page: {page.loose[:5]}"
+    n = 0
+    for rec in page.sourced:
+        kind, _, path = rec["src"].partition(":")
+        text = rec["text"]
+        if kind == "json":
+            _check_value(text, _resolve(data, path), rec["u"])
+        elif kind == "case":
+            _check_value(text, _resolve(case, path), rec["u"])
+        elif kind == "ord":
+            assert text == path
+        elif kind == "key":
+            _resolve(data, path)  # the label names a key of the JSON result
+        elif kind == "name":  # a published name that contains digits, e.g. of the hash algorithm
+            assert text == path and text in NAMES
+        elif kind == "report":
+            assert path == "date" and text == DATE
+        elif kind == "run":
+            assert text == list(warnings)[int(path.split("/")[1])]
+        else:
+            raise AssertionError(f"unknown source {rec['src']!r}")
+        n += 1
+    return n
+
+
+# -- content ----------------------------------------------------------------------------------------
+
+
+@pytest.mark.parametrize("path", CASES, ids=[p.stem for p in CASES])
+def test_every_demo_case_gives_a_report_whose_numbers_are_the_json(runs, path):
+    case, res, data, html = runs[path.stem]
+    n = check_numbers(html, case, data)
+    # at least the load factors and the per-segment figures of every plane are shown
+    expected = sum(len(b["load_factors"]) + 7 * len(b["segments"]) for b in data["buckling"])
+    assert n >= expected
+    page = parse_page(html)
+    titles = [t for h, t in page.headings if h == "h2"]
+    assert titles[:3] == ["Inputs", "Method", "Elastic critical buckling"]
+    assert titles[-1] == "Warnings, limitations and cautions"
+    assert ("Design check" in titles) == ("design" in data)
+    assert ("Imperfect column" in titles) == ("imperfect" in data)
+    for text in data["cautions"]:  # the caution and every limitation (fea/cautions.py) appear
+        assert text in html.replace("&#x27;", "'")
+
+
+def test_governing_numbers_are_marked_with_their_json_keys(runs):
+    case, res, data, html = runs["crane_column"]
+    page = parse_page(html)
+    shown = {r["src"]: r["text"] for r in page.sourced}
+    assert "json:governing_load_factor" in shown
+    for i, b in enumerate(data["buckling"]):
+        for j in range(len(b["segments"])):
+            for key in ("critical_axial_force_N", "effective_length_factor", "k_meaningful"):
+                assert f"json:buckling/{i}/segments/{j}/{key}" in shown
+    # display units of the case: kN and m here, so N_cr is shown in kN
+    s = data["buckling"][0]["segments"][0]
+    assert _close(shown["json:buckling/0/segments/0/critical_axial_force_N"], s["critical_axial_force_N"] / 1e3)
+
+
+def test_millimetre_case_is_shown_in_its_own_units(runs):
+    case, res, data, html = runs["mezzanine_column"]
+    assert case.display.length == "mm"
+    page = parse_page(html)
+    top = next(r for r in page.sourced if r["src"] == "json:buckling/0/segments/1/top_m")
+    assert top["u"] == "mm" and _close(top["text"], 1e3 * data["buckling"][0]["segments"][1]["top_m"])
+
+
+def test_design_part_shows_formula_clause_and_utilisation(runs):
+    case, res, data, html = runs["design_hall_column"]
+    page = parse_page(html)
+    srcs = {r["src"] for r in page.sourced}
+    assert "json:design/max_utilisation" in srcs
+    assert {"json:design/checks/0/clause", "json:design/checks/0/formula", "json:design/checks/0/utilisation",
+            "json:design/checks/0/resistance_N"} <= srcs
+
+
+def test_warnings_are_shown_verbatim(runs):
+    case, res, data, _ = runs["shed_column"]
+    warns = ["UserWarning: a demo warning raised at 2.5 m (invented for this test)"]
+    html = build_report(res, data, {}, warnings=warns, date=DATE)
+    check_numbers(html, case, data, warns)
+    assert "a demo warning raised" in html
+
+
+def test_report_refuses_the_json_of_another_case(runs):
+    _, res, _, _ = runs["shed_column"]
+    _, _, other, _ = runs["crane_column"]
+    with pytest.raises(ValueError, match="case_sha256"):
+        build_report(res, other, {}, date=DATE)
+
+
+def test_markdown_has_the_same_numbers_in_the_same_order(runs):
+    case, res, data, html = runs["crane_column"]
+    md = html_module.unescape(re.sub(r"\\([\\|*_`])", r"\1", build_markdown(res, data, {}, date=DATE)))
+    page = parse_page(html)
+    pos = 0
+    for rec in page.sourced:
+        if rec["in_svg"] or rec["src"].startswith(("key:",)) or rec["text"] == "":
+            continue
+        if re.search(r"[0-9]", rec["text"]):
+            found = md.find(rec["text"], pos)
+            assert found >= 0, f"{rec['text']!r} ({rec['src']}) missing from the Markdown after offset {pos}"
+            pos = found
+    for _, title in parse_page(html).headings:
+        assert title.split(" (")[0] in md
+    assert md.startswith("# Two-stage crane column")
+
+
+# -- the subcommand ---------------------------------------------------------------------------------
+
+
+def test_report_subcommand_writes_html_markdown_and_figures(tmp_path, capsys):
+    out, md = tmp_path / "crane.html", tmp_path / "crane.md"
+    case = str(CASES[0].with_name("crane_column.toml"))
+    assert main(["report", case, "-o", str(out), "--markdown", str(md), "--date", DATE]) == 0
+    text = out.read_text(encoding="utf-8")
+    assert text.startswith("<!DOCTYPE html>") and text.rstrip().endswith("</html>")
+    assert "crane-sketch.svg" in md.read_text(encoding="utf-8")
+    for name in ("crane-sketch.svg", "crane-modes.svg"):
+        ET.parse(tmp_path / name)  # well-formed SVG files beside the Markdown
+    assert sorted(p.name for p in tmp_path.iterdir()) == ["crane-modes.svg", "crane-sketch.svg", "crane.html",
+                                                          "crane.md"]
+
+
+def test_report_subcommand_bad_input_writes_nothing(tmp_path, capsys):
+    case = str(CASES[0].with_name("crane_column.toml"))
+    assert main(["report", case, "-o", str(tmp_path / "r.pdf")]) == 2
+    assert "should end in .html" in capsys.readouterr().err
+    assert main(["report", str(tmp_path / "missing.toml"), "-o", str(tmp_path / "r.html")]) == 2
+    assert main(["report", case, "-o", str(tmp_path / "r.html"), "--units", "kN"]) == 2
+    assert list(tmp_path.iterdir()) == []
+
+
+# -- in a real browser ------------------------------------------------------------------------------
+
+CHROMIUM = shutil.which("chromium") or shutil.which("chromium-browser")
+FLAGS = ["--headless", "--no-sandbox", "--disable-gpu", "--disable-quic", "--no-first-run",
+         "--disable-background-networking", "--disable-component-update", "--disable-sync",
+         "--no-pdf-header-footer", "--hide-scrollbars"]
+
+
+@pytest.fixture(scope="module")
+def browser():
+    if CHROMIUM is None:
+        if os.environ.get("CI") == "true":
+            pytest.fail("chromium is not installed: .ci/run must install Debian's chromium package")
+        pytest.skip("chromium is not installed on this machine (Debian package `chromium`); the browser checks "
+                    "of the report were not run")
+    return CHROMIUM
+
+
+#: Nothing the browser sends may leave the machine: every request goes to a closed loopback port.
+DEAD_PROXY = "http://127.0.0.1:9"
+
+
+def _chromium(browser: str, *args: str) -> subprocess.CompletedProcess:
+    with tempfile.TemporaryDirectory(prefix="stanchion-chromium-") as profile:
+        return subprocess.run([browser, *FLAGS, f"--user-data-dir={profile}", f"--proxy-server={DEAD_PROXY}",
+                               "--proxy-bypass-list=<-loopback>", "--enable-logging=stderr", "--v=0", *args],
+                              capture_output=True, text=True, timeout=90)
+
+
+def _blocked(stderr: str) -> list[str]:
+    """Console lines of the page reporting a load it attempted (blocked by the policy or failed)."""
+    return [line for line in stderr.splitlines() if "CONSOLE" in line and
+            ("Content Security Policy" in line or "net::ERR" in line or "Failed to load" in line)]
+
+
+def _pdf_pages(pdf: Path) -> list[tuple[float, float]]:
+    data = pdf.read_bytes()
+    boxes = re.findall(rb"/MediaBox\s*\[\s*([\d.]+)\s+([\d.]+)\s+([\d.]+)\s+([\d.]+)\s*\]", data)
+    pages = len(re.findall(rb"/Type\s*/Page\b(?!s)", data))
+    assert pages > 0, "no page objects found in the PDF"
+    size = [(float(b[2]) - float(b[0]), float(b[3]) - float(b[1])) for b in boxes]
+    return size[:pages] if len(size) >= pages else size + [size[-1]] * (pages - len(size))
+
+
+@pytest.mark.parametrize("name", ["shed_column", "design_hall_column"])
+def test_report_in_headless_chromium(runs, browser, tmp_path, name):
+    case, res, data, html = runs[name]
+    src = tmp_path / f"{name}.html"
+    src.write_text(html, encoding="utf-8")
+    dom = _chromium(browser, "--dump-dom", src.as_uri())
+    assert dom.returncode == 0, dom.stderr[-2000:]
+    png = tmp_path / f"{name}.png"
+    shot = _chromium(browser, f"--screenshot={png}", "--window-size=1000,1400", src.as_uri())
+    assert shot.returncode == 0 and png.read_bytes()[:8] == b"\x89PNG\r\n\x1a\n", shot.stderr[-2000:]
+    assert png.stat().st_size > 20_000  # a rendered page, not a blank one
+    pdfs = {}
+    for paper, css in (("letter", "letter"), ("a4", "A4")):
+        page_src = tmp_path / f"{name}-{paper}.html"
+        page_src.write_text(html.replace("</style>", f"@page {{ size: {css}; }}</style>", 1), encoding="utf-8")
+        pdfs[paper] = tmp_path / f"{name}-{paper}.pdf"
+        run = _chromium(browser, f"--print-to-pdf={pdfs[paper]}", page_src.as_uri())
+        assert run.returncode == 0 and pdfs[paper].exists(), run.stderr[-2000:]
+    # no request leaves the file: the page's policy forbids any fetch, and the page attempted none
+    assert "default-src 'none'" in html and "<script" not in html.lower()
+    assert _blocked(dom.stderr) == [] and _blocked(shot.stderr) == []
+    # the check above can see an attempt: the same page with one outside image reports it
+    canary = tmp_path / "canary.html"
+    canary.write_text(html.replace("<body>", '<body><img src="http://127.0.0.1:9/canary.png" alt="">', 1),
+                      encoding="utf-8")
+    control = _chromium(browser, "--dump-dom", canary.as_uri())
+    assert any("canary.png" in line for line in _blocked(control.stderr)), control.stderr[-2000:]
+    page = parse_page(dom.stdout)
+    for tag, attr, value in page.attrs:
+        if attr in ("src", "href", "xlink:href", "action", "poster", "data") and not attr.startswith("xmlns"):
+            assert not re.match(r"\s*(https?:|//|file:)", value), f"<{tag} {attr}={value!r}> fetches from outside"
+        assert not (tag == "img" and attr == "src" and not value.startswith("data:")), f"<img src={value!r}>"
+    # every part heading is on the rendered page, and the numbers survive the browser's parsing
+    titles = [t for h, t in page.headings if h == "h2"]
+    expected = ["Inputs", "Method", "Elastic critical buckling", *(["Design check"] if "design" in data else []),
+                "Warnings, limitations and cautions"]
+    assert titles == expected
+    assert [t for h, t in page.headings if h == "h1"] == [data["title"]]
+    assert not page.loose
+    # no broken image: every inline SVG is well-formed XML with a size, no <img> at all
+    svgs = re.findall(r"<svg\b.*?</svg>", html, flags=re.S)
+    assert len(svgs) >= 2 + ("design" in data)
+    for svg in svgs:
+        root = ET.fromstring(svg)
+        assert root.get("viewBox"), "inline SVG without a viewBox"
+    assert dom.stdout.count("<svg") == len(svgs) and "<img" not in dom.stdout
+    # printed: one page or more per part (each part starts a page), on US letter and A4
+    n_parts = dom.stdout.count('<section class="part')
+    for paper, (w, h) in (("letter", (612, 792)), ("a4", (595.3, 841.9))):
+        sizes = _pdf_pages(pdfs[paper])
+        assert len(sizes) >= n_parts, f"{paper}: {len(sizes)} pages for {n_parts} parts"
+        assert all(abs(sw - w) < 1.5 and abs(sh - h) < 1.5 for sw, sh in sizes), (paper, sizes[:2])
