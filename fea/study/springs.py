@@ -228,8 +228,11 @@ class SpringModel:
             else:
                 b = mid
         # polish: inverse iteration shifted to the lower bracket, then the Rayleigh quotient
-        sigma = math.exp(a) * (1.0 - 1e-9)
-        cs = sla.cholesky_banded(Kb - sigma * Gb, lower=True, check_finite=False)
+        sigma = math.exp(a) * (1.0 - 1e-7)
+        try:
+            cs = sla.cholesky_banded(Kb - sigma * Gb, lower=True, check_finite=False)
+        except sla.LinAlgError:  # round-off at the bracket: keep the bisection's answer
+            return math.exp(0.5 * (a + b))
         for _ in range(4):
             y = sla.cho_solve_banded((cs, True), _band_matvec(Gb, x, bw), check_finite=False)
             x = y / np.max(np.abs(y))
