@@ -31,7 +31,7 @@ from .document import Em, Q, T, q, unit_label
 __all__ = ["column_sketch"]
 
 PANEL_W = 310.0
-TOP, BOTTOM = 46.0, 392.0
+TOP, BOTTOM = 46.0, 330.0
 X_AXIS = 120.0
 X_WALL = 78.0
 X_HEIGHT = 40.0
