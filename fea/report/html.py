@@ -43,7 +43,8 @@ tbody tr + tr td { border-top: 0.3pt solid #bbb; }
 div.table { margin: 4pt 0 10pt; break-inside: avoid; }
 div.table table { margin: 0; }
 td { white-space: nowrap; }
-td:last-child { white-space: normal; }
+td:last-child, td.w { white-space: normal; }
+td.w { min-width: 45mm; }
 p.tnote { font-size: 8.5pt; color: #333; margin: 3pt 0 0; max-width: 150mm; }
 figure { margin: 8pt 0 12pt; break-inside: avoid; page-break-inside: avoid; counter-increment: figure; }
 figure svg { display: block; width: 100%; height: auto; max-height: 215mm; margin: 0 auto; }
@@ -100,6 +101,14 @@ def _numeric(cell) -> bool:
     return not any(isinstance(p, T) and p.text not in ("rigid", "free", "yes", "no") for p in cell)
 
 
+def _cls(numeric_column: bool, cell) -> str:
+    if numeric_column and _numeric(cell):
+        return " class=n"
+    if sum(len(getattr(p, "text", p)) for p in cell if isinstance(p, (str, T))) > 28:
+        return " class=w"  # long text from a result: wraps
+    return ""
+
+
 def _heading_text(h: Heading) -> str:
     return inline((h.text,))
 
@@ -119,8 +128,8 @@ def _block(b) -> str:
     if isinstance(b, Table):
         num = set(b.numeric)
         head = "".join(f'<th{" class=n" if i in num else ""}>{inline(h)}</th>' for i, h in enumerate(b.header))
-        body = "".join("<tr>" + "".join(f'<td{" class=n" if i in num and _numeric(c) else ""}>{inline(c)}</td>'
-                                        for i, c in enumerate(row)) + "</tr>" for row in b.rows)
+        body = "".join("<tr>" + "".join(f"<td{_cls(i in num, c)}>{inline(c)}</td>" for i, c in enumerate(row))
+                       + "</tr>" for row in b.rows)
         note = f'<p class="tnote">{inline(b.caption)}</p>' if b.caption else ""
         return f'<div class="table"><table><thead><tr>{head}</tr></thead><tbody>{body}</tbody></table>{note}</div>'
 
