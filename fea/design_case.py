@@ -16,7 +16,7 @@ from .io.case import Case
 from .model import Column
 from .results import BucklingResult
 
-__all__ = ["member_data", "segment_forces", "design_of_case", "NEEDS_FY"]
+__all__ = ["member_data", "segment_forces", "axis_buckling", "design_of_case", "NEEDS_FY"]
 
 #: Standards whose resistance is built on the yield strength fy.
 NEEDS_FY = ("EN 1993-1-1", "AISC 360", "AS 4100", "BS 5950-1", "Perry-Robertson")
@@ -59,7 +59,8 @@ def segment_forces(column: Column) -> tuple[SegmentForces, ...]:
     return tuple(out)
 
 
-def _axis_buckling(r: BucklingResult) -> tuple[AxisBuckling, ...]:
+def axis_buckling(r: BucklingResult) -> tuple[AxisBuckling, ...]:
+    """Per-segment buckling figures of one plane, as the design check takes them."""
     return tuple(AxisBuckling(N_cr=s.critical_axial_force, effective_length_factor=s.effective_length_factor,
                               meaningful=s.meaningful, note=s.note) for s in r.segments)
 
@@ -79,5 +80,5 @@ def design_of_case(case: Case, results: Sequence[BucklingResult], spec: DesignSp
     cols = list(columns) if columns is not None else [c for _, c in case.planes]
     members = member_data(case, spec, areas)
     forces = segment_forces(cols[0])
-    buck = [(r.axis or a, _axis_buckling(r)) for r, (a, _) in zip(results, case.planes)]
+    buck = [(r.axis or a, axis_buckling(r)) for r, (a, _) in zip(results, case.planes)]
     return design_check(spec, members, forces, buck)

@@ -16,7 +16,7 @@ from typing import Sequence
 from scipy.optimize import brentq
 
 from .design.check import DesignCheck, DesignResult, DesignSpec, design_check
-from .design_case import _axis_buckling, member_data, segment_forces
+from .design_case import axis_buckling, member_data, segment_forces
 from .errors import CaseError, ModelError, SolverError
 from .io.case import Case
 from .io.catalogue import Candidate
@@ -148,7 +148,7 @@ def check_candidate(case: Case, spec: DesignSpec, segments: Sequence[int], cand:
         return CandidateResult(cand, None, math.nan, f"not solved: {exc}")
     members = member_data(case, spec, areas)
     forces = segment_forces(cols[0])
-    design = design_check(spec, members, forces, [(r.axis, _axis_buckling(r)) for r in res])
+    design = design_check(spec, members, forces, [(r.axis, axis_buckling(r)) for r in res])
     return CandidateResult(cand, design, min(r.load_factor for r in res))
 
 
@@ -179,7 +179,7 @@ def required_inertia(case: Case, spec: DesignSpec, segments: Sequence[int], targ
                 r = buckling(column(math.exp(ls)), n_modes=1, tol=case.tolerance, axis=axis)
             except (ModelError, SolverError):
                 return math.inf
-            d = design_check(spec, members, forces, [(axis, _axis_buckling(r))])
+            d = design_check(spec, members, forces, [(axis, axis_buckling(r))])
             comp = [c.utilisation for c in d.checks if c.kind == "compression"]
             return (max(comp) if comp else 0.0) - target
 
