@@ -56,6 +56,7 @@ from .errors import ModelError
 from .model import STATION_TOL, Column
 
 __all__ = [
+    "ANALYSES",
     "BOW_SHAPES",
     "Imperfection",
     "LateralPointLoad",
@@ -67,6 +68,8 @@ __all__ = [
 ]
 
 BOW_SHAPES = ("half-sine", "half-sine-per-segment", "between-restraints", "mode", "offsets")
+#: Analyses of an imperfect column.
+ANALYSES = ("second-order", "nonlinear", "both")
 
 
 def _finite(field: str, value, unit: str) -> float:

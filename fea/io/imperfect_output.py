@@ -26,12 +26,14 @@ Non-finite numbers are written as null.
 from __future__ import annotations
 
 import math
-from typing import Any
+from typing import TYPE_CHECKING, Any
 
 import numpy as np
 
-from ..solve.imperfect import ImperfectResult
 from ..units import DisplayUnits
+
+if TYPE_CHECKING:
+    from ..solve.imperfect import ImperfectResult
 
 __all__ = ["imperfect_json", "imperfect_summary", "result_json"]
 
@@ -59,7 +61,7 @@ def _clean(obj):
     return obj
 
 
-def result_json(r: ImperfectResult) -> dict[str, Any]:
+def result_json(r: "ImperfectResult") -> dict[str, Any]:
     """One plane's result as a JSON-able dict (SI)."""
     imp = r.imperfection
     so, nl = r.second_order, r.nonlinear
@@ -122,7 +124,7 @@ def result_json(r: ImperfectResult) -> dict[str, Any]:
     return _clean(out)
 
 
-def imperfect_json(results: dict[str, ImperfectResult]) -> list[dict[str, Any]]:
+def imperfect_json(results: dict[str, "ImperfectResult"]) -> list[dict[str, Any]]:
     """The ``"imperfect"`` part of the JSON result: one object per plane (see module notes)."""
     return [result_json(r) for r in results.values()]
 
@@ -133,7 +135,7 @@ def _lf(x) -> str:
     return "-" if x is None or not math.isfinite(x) else fmt(x)
 
 
-def _bow_text(r: ImperfectResult, d: DisplayUnits) -> str:
+def _bow_text(r: "ImperfectResult", d: DisplayUnits) -> str:
     from .summary import fmt
 
     imp = r.imperfection
@@ -144,7 +146,7 @@ def _bow_text(r: ImperfectResult, d: DisplayUnits) -> str:
     return f"bow {size}, {imp.shape} (largest {fmt(d.L(r.bow_amplitude))} {d.length})"
 
 
-def imperfect_summary(results: dict[str, ImperfectResult], d: DisplayUnits) -> list[str]:
+def imperfect_summary(results: dict[str, "ImperfectResult"], d: DisplayUnits) -> list[str]:
     """Terminal summary lines of the imperfect-column analysis, in display units."""
     from .summary import fmt
 

@@ -35,14 +35,16 @@ from __future__ import annotations
 import math
 import re
 from dataclasses import dataclass, field, replace
-from typing import Any
+from typing import TYPE_CHECKING, Any
 
 from ..errors import CaseError, ModelError
-from ..imperfection import (BOW_SHAPES, AppliedMoment, Imperfection, LateralActions, LateralDistributedLoad,
+from ..imperfection import (ANALYSES, BOW_SHAPES, AppliedMoment, Imperfection, LateralActions, LateralDistributedLoad,
                             LateralPointLoad, SegmentSection)
-from ..solve.imperfect import ANALYSES, ImperfectResult, analyse_imperfect
 from ..units import parse
 from . import case as _case
+
+if TYPE_CHECKING:  # the solvers are imported only when a case declares an imperfection
+    from ..solve.imperfect import ImperfectResult
 
 __all__ = ["ImperfectionSpec", "LateralSpec", "parse_imperfection", "parse_lateral", "shape_from_table",
            "declares_imperfect", "run_imperfect", "imperfect_analysis", "plane_inputs"]
@@ -406,13 +408,15 @@ def plane_inputs(case, axis: str, spec: ImperfectionSpec | None = None):
         spec.loads.for_axis(axis), analysis, notes
 
 
-def run_imperfect(case, buckling_results=None) -> dict[str, ImperfectResult]:
+def run_imperfect(case, buckling_results=None) -> dict[str, "ImperfectResult"]:
     """Run the imperfect-column analyses ``case`` declares; ``{axis: ImperfectResult}`` (empty if none).
 
     ``buckling_results`` (optional, one BucklingResult per plane) are reused for the critical loads.
     """
     if not declares_imperfect(case):
         return {}
+    from ..solve.imperfect import analyse_imperfect
+
     spec = _spec(case)
     out = {}
     for axis, _ in case.planes:
@@ -434,7 +438,7 @@ def run_imperfect(case, buckling_results=None) -> dict[str, ImperfectResult]:
     return out
 
 
-def imperfect_analysis(case, buckling_results=None) -> dict[str, ImperfectResult] | None:
+def imperfect_analysis(case, buckling_results=None) -> dict[str, "ImperfectResult"] | None:
     """Adapter for :data:`fea.runner.ANALYSES`: the results, or None when the case declares nothing."""
     return run_imperfect(case, buckling_results) or None
 
@@ -447,7 +451,7 @@ def register() -> None:
     from .. import runner
     from . import export, summary
     from .design_io import register as _sections  # noqa: F401  (installs the section hook)
-    from .imperfect_output import imperfect_json, imperfect_summary
+    from .imperfect_output import imperfect_json, imperfect_summary  # numpy only
 
     _case.EXTRA_SECTIONS["imperfection"] = parse_imperfection
     _case.EXTRA_SECTIONS["lateral"] = parse_lateral

@@ -45,7 +45,7 @@ from dataclasses import dataclass, field
 import numpy as np
 
 from ..errors import ModelError
-from ..imperfection import Imperfection, LateralActions, SegmentSection
+from ..imperfection import ANALYSES, Imperfection, LateralActions, SegmentSection
 from ..model import Column
 from .eigen import buckling
 from .fibre import make_elastic_section, make_fibre_section
@@ -57,7 +57,6 @@ __all__ = ["NonlinearPath", "ComparisonRow", "ImperfectResult", "nonlinear_path"
 
 logger = logging.getLogger(__name__)
 
-ANALYSES = ("second-order", "nonlinear", "both")
 #: Smallest number of elements of the nonlinear model.
 MIN_ELEMENTS = 16
 

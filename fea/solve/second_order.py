@@ -39,7 +39,6 @@ from dataclasses import dataclass, field, replace
 
 import numpy as np
 import scipy.linalg as sla
-from scipy.optimize import brentq
 
 from ..assemble import assemble
 from ..elements import GAUSS_W, GAUSS_XI, elastic_stiffness, foundation_stiffness, geometric_stiffness, \
@@ -384,6 +383,7 @@ def _critical(d: Discrete) -> float:
 
 def _first_yield(sol: _Solver, st: _Stress, lam_cr: float):
     """(lam, element, end) of the first yield, or None; 0 when yielding at lam = 0."""
+    from scipy.optimize import brentq  # imported here: keeps start-up of the command light
 
     def excess(lam: float) -> tuple[float, int, int]:
         u = sol.additional(lam)
