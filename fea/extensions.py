@@ -11,7 +11,12 @@ from __future__ import annotations
 _LOADED = False
 
 #: Modules that register optional analyses, in import order.
-MODULES: tuple[str, ...] = ("fea.io.design_io", "fea.report.command", "fea.study.commands")
+MODULES: tuple[str, ...] = (
+    "fea.io.design_io",
+    "fea.io.imperfection",
+    "fea.report.command",
+    "fea.study.commands",
+)
 
 
 def load() -> None:

@@ -86,6 +86,9 @@ class BucklingResult:
     solver : "dense" or "sparse"
     message : plain-language status
     axis : bending plane label ("" for a single-plane study)
+    warnings : plain-language warnings (e.g. accuracy limited by round-off)
+    roundoff_error : estimated relative round-off error of the lowest load
+        factor on the final mesh (large only for near-mechanisms)
     """
 
     load_factors: np.ndarray
@@ -103,6 +106,7 @@ class BucklingResult:
     message: str = ""
     axis: str = ""
     warnings: tuple[str, ...] = field(default_factory=tuple)
+    roundoff_error: float = 0.0
 
     @property
     def load_factor(self) -> float:

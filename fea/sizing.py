@@ -13,7 +13,6 @@ import math
 from dataclasses import dataclass, replace
 from typing import Sequence
 
-from scipy.optimize import brentq
 
 from .design.check import DesignCheck, DesignResult, DesignSpec, design_check
 from .design_case import axis_buckling, member_data, segment_forces
@@ -158,6 +157,8 @@ def _root(fn, lo: float, hi: float) -> tuple[float | None, str]:
         return None, "not reached even at 1000 x the present I"
     if a <= 0:
         return math.exp(lo), "reached already at 0.001 x the present I (upper bound shown)"
+    from scipy.optimize import brentq  # imported here: keeps start-up fast
+
     return math.exp(brentq(fn, lo, hi, xtol=1e-3)), ""
 
 

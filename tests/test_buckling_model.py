@@ -194,3 +194,16 @@ def test_result_reports_convergence():
 def test_bad_options(kw, match):
     with pytest.raises(ModelError, match=match):
         buckling(one_segment(), **kw)
+
+
+def test_near_mechanism_is_flagged_as_roundoff_limited():
+    # A pinned base and a top held only by a rotational spring six orders of
+    # magnitude softer than the member: P_cr -> k / L (rigid-body rotation
+    # restrained by the spring alone), and the answer is limited by round-off.
+    L, k = 1.0, 10.0
+    col = Column(segments=(Segment(L, E_STEEL, 3.53e-5),), restraints=(Restraint(0.0, RIGID), Restraint(L, 0.0, k)),
+                 point_loads=(PointLoad(L, 1.0),))
+    res = buckling(col)
+    assert res.load_factor == pytest.approx(k / L, rel=1e-4)
+    assert res.roundoff_error > 1e-7
+    assert any("round-off" in w for w in res.warnings)

@@ -12,7 +12,7 @@ from hypothesis import strategies as st
 from fea import FREE, RIGID, Column, PointLoad, Restraint, Segment, buckling
 from fea.assemble import assemble
 from fea.mesh import build_mesh
-from fea.solve.eigen import solve_assembled
+from fea.solve.eigen import roundoff_floor, solve_assembled
 
 SETTINGS = settings(max_examples=25, deadline=None, suppress_health_check=[HealthCheck.too_slow])
 
@@ -103,9 +103,17 @@ def test_turning_end_for_end_leaves_it_unchanged(col):
 def test_refining_the_mesh_never_raises_it(col):
     # Conforming Rayleigh-Ritz discretisation: nested meshes give upper bounds
     # that fall monotonically.
+    # Exact in arithmetic; in floating point it holds to within the round-off
+    # floor the solver reports (large only for near-mechanisms, where a
+    # very soft spring alone holds a rigid-body motion).
     assume(_stable(col))
-    lams = [solve_assembled(assemble(build_mesh(col, level)), 1)[0][0] for level in range(4)]
-    assert all(b <= a * (1 + 1e-10) for a, b in zip(lams, lams[1:]))
+    lams, floors = [], []
+    for level in range(4):
+        asm = assemble(build_mesh(col, level))
+        lam, vec, _ = solve_assembled(asm, 1)
+        lams.append(lam[0])
+        floors.append(roundoff_floor(asm, vec[:, 0]))
+    assert all(b <= a * (1 + max(1e-10, 10 * f)) for a, b, f in zip(lams, lams[1:], floors[1:]))
 
 
 def test_convergence_rate_is_fourth_order():

@@ -34,6 +34,8 @@ def buckling_dict(r: BucklingResult) -> dict[str, Any]:
         "load_factors": [float(v) for v in r.load_factors],
         "converged": r.converged,
         "discretisation_error": float(r.discretisation_error),
+        "roundoff_error": float(r.roundoff_error),
+        "warnings": list(r.warnings),
         "tolerance": r.tolerance,
         "n_elements": r.n_elements,
         "solver": r.solver,

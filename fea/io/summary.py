@@ -39,6 +39,8 @@ def summary_lines(res: CaseResults, display: DisplayUnits | None = None) -> list
         out.append(f"Axis {r.axis}: load factors {lf}")
         out.append(f"  mesh {r.n_elements} elements, estimated error of the lowest load factor "
                    f"{r.discretisation_error:.1e} (tolerance {r.tolerance:.0e}){'' if r.converged else '  NOT CONVERGED'}")
+        for w in r.warnings:
+            out.append(f"  WARNING: {w}")
         out.append(f"  {'segment':<22} {'from-to [' + d.length + ']':>15} {'N [' + d.force + ']':>11} "
                    f"{'N_cr [' + d.force + ']':>12} {'K':>7} {'K L [' + d.length + ']':>10} {'energy':>7}")
         for s, info in zip(r.segments, case.segments):

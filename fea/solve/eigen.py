@@ -20,6 +20,7 @@ from __future__ import annotations
 
 import logging
 import math
+from dataclasses import replace
 
 import numpy as np
 
@@ -29,14 +30,14 @@ from ..mesh import Mesh, build_mesh
 from ..model import Column
 from ..results import K_AXIAL_RATIO_MIN, K_ENERGY_SHARE_MIN, BucklingResult, SegmentBuckling
 
-__all__ = ["buckling", "solve_assembled", "DENSE_MAX_DOF", "DEFAULT_TOL", "MAX_LEVEL"]
+__all__ = ["buckling", "solve_assembled", "roundoff_floor", "DENSE_MAX_DOF", "DEFAULT_TOL", "MAX_LEVEL"]
 
 logger = logging.getLogger(__name__)
 
 #: Largest reduced system solved with dense LAPACK (measured crossover).
 DENSE_MAX_DOF = 400
 DEFAULT_TOL = 1e-6
-MAX_LEVEL = 9
+MAX_LEVEL = 8
 
 
 def _cholesky(K: np.ndarray, rcond: float = 1e-13) -> np.ndarray | None:
@@ -163,6 +164,20 @@ def solve_assembled(asm: Assembled, n_modes: int, method: str = "auto") -> tuple
     return 1.0 / mu, vec, method
 
 
+def roundoff_floor(asm: Assembled, v: np.ndarray) -> float:
+    """Estimated relative round-off error of the load factor of mode ``v`` (reduced numbering).
+
+    ``eps / rho`` with ``rho = v^T K v / v^T diag(K) v``: the share of the
+    diagonal stiffness the mode actually mobilises.  A near-mechanism (a very
+    soft restraint holding an otherwise rigid-body motion) has a tiny ``rho``
+    and so an answer limited by round-off, whatever the mesh.
+    """
+    K = asm.Ks if asm.is_sparse else asm.K
+    d = np.abs(K.diagonal())
+    rho = float(v @ (K @ v)) / float(v @ (d * v))
+    return float(np.finfo(float).eps / max(rho, 1e-300))
+
+
 def _check_solvable(column: Column, mesh: Mesh, asm: Assembled) -> None:
     if asm.K0.shape[0] == 0:
         raise ModelError("restraints", "every degree of freedom is rigidly restrained; nothing can buckle")
@@ -220,7 +235,8 @@ def buckling(column: Column, n_modes: int = 3, tol: float = DEFAULT_TOL, method:
 
     solved: dict[int, float] = {}
     est = math.inf
-    order = None  # observed convergence order
+    orders: list[float] = []  # observed convergence orders from consecutive meshes
+    roundoff_limited = False
     level = 0
     while True:
         mesh = build_mesh(column, level)
@@ -231,21 +247,31 @@ def buckling(column: Column, n_modes: int = 3, tol: float = DEFAULT_TOL, method:
         if lam.size == 0:
             raise SolverError("no positive load factor found: the variable loads do not cause buckling")
         solved[level] = float(lam[0])
+        floor = roundoff_floor(asm, vec[:, 0])
         nxt = level + 1
         if level - 1 in solved:
             d = abs(solved[level] - solved[level - 1])
             if level - 2 in solved:
                 d_prev = abs(solved[level - 1] - solved[level - 2])
-                if d_prev > 0 and d > 0 and 2.0 < d_prev / d < 2.0**6:
-                    order = math.log2(d_prev / d)
+                if d_prev > 0 and d > 0:
+                    orders.append(math.log2(d_prev / d))
+            # the rate is trusted once two successive observations agree (asymptotic range)
+            order = orders[-1] if len(orders) >= 2 and abs(orders[-1] - orders[-2]) < 0.5 and orders[-1] > 1 \
+                else None
             est = (d / (2.0**order - 1.0) if order else d) / solved[level]
             if level >= min_level and est <= tol:
                 break
+            if d / solved[level] <= 10 * floor:
+                # refinement now changes the answer only at the round-off level: refining further
+                # would make it worse, not better
+                roundoff_limited = True
+                est = max(est, floor)
+                break
             if order and est > 0:
-                # skip levels when the observed rate says several doublings are still needed
+                # skip levels when the trusted rate says several doublings are still needed
                 k = math.ceil(math.log2(est / tol) / order)
                 if k >= 3:
-                    nxt = level + k - 1
+                    nxt = level + min(k, 4) - 1
         if nxt > MAX_LEVEL:
             if level < MAX_LEVEL:
                 nxt = MAX_LEVEL
@@ -254,10 +280,18 @@ def buckling(column: Column, n_modes: int = 3, tol: float = DEFAULT_TOL, method:
         level = nxt
     history = [solved[k] for k in sorted(solved)]
     converged = est <= tol
-    msg = (f"lowest load factor converged: estimated relative discretisation error {est:.1e} <= {tol:.0e}"
-           if converged else
-           f"mesh refinement stopped at level {MAX_LEVEL}: estimated relative error {est:.1e} > {tol:.0e}")
-    return _package(column, mesh, asm, lam, vec, solver, np.array(history), est, tol, converged, msg, axis)
+    warns: tuple[str, ...] = ()
+    if roundoff_limited or floor > 0.1 * tol:
+        warns = (f"accuracy limited by round-off (estimated {floor:.1e} relative): the mode is held only by "
+                 "restraints that are very soft compared with the member (a near-mechanism); check the restraints",)
+    if converged:
+        msg = f"lowest load factor converged: estimated relative discretisation error {est:.1e} <= {tol:.0e}"
+    elif roundoff_limited:
+        msg = f"lowest load factor limited by round-off: estimated relative error {est:.1e} > {tol:.0e}"
+    else:
+        msg = f"mesh refinement stopped at level {MAX_LEVEL}: estimated relative error {est:.1e} > {tol:.0e}"
+    res = _package(column, mesh, asm, lam, vec, solver, np.array(history), est, tol, converged, msg, axis)
+    return replace(res, roundoff_error=floor, warnings=warns)
 
 
 def _package(column, mesh, asm, lam, vec, solver, history, est, tol, converged, msg, axis) -> BucklingResult:

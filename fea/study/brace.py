@@ -30,7 +30,6 @@ import math
 from dataclasses import dataclass
 
 import numpy as np
-from scipy.optimize import brentq
 
 from ..errors import ModelError
 from ..model import Column
@@ -218,6 +217,8 @@ def brace_stiffness(column: Column, restraints, kind: str = "lateral", fraction:
         lo = hi
         while lam(lo) >= fraction * lam_r:
             lo /= 10
+        from scipy.optimize import brentq  # imported here: keeps start-up fast
+
         k_f = math.exp(brentq(lambda t: lam(math.exp(t)) - fraction * lam_r, math.log(lo), math.log(hi),
                               xtol=1e-13, rtol=1e-13))
 
