@@ -61,7 +61,8 @@ def build_parser() -> argparse.ArgumentParser:
     c.add_argument("--json", nargs="?", const="-", metavar="FILE",
                    help="write the JSON result to FILE, or to standard output instead of the summary")
     c.add_argument("--plot", metavar="FILE", action="append", default=[],
-                   help="draw the mode shapes to FILE (.png, .svg or .pdf); may be repeated")
+                   help="draw the mode shapes to FILE (.png, .svg or .pdf; may be repeated); the figures of an "
+                        "imperfect-column analysis or a design check go beside it as FILE-<name>")
     c.add_argument("--units", type=_units, metavar="FORCE,LENGTH",
                    help="display units, e.g. 'kN,m' or 'N,mm' (default: the case's [units], else kN,m)")
     c.add_argument("--modes", type=int, metavar="N", help="number of modes (default: the case's, else 3)")
@@ -108,6 +109,13 @@ def _cmd_check(args: argparse.Namespace) -> int:
                           length_unit=(display.length, display.length_si),
                           force_unit=(display.force, display.force_si), title=case.title)
         figures.append(fig)
+        from .plot.extras import extra_figures
+
+        extra = extra_figures(res.extras, length_unit=(display.length, display.length_si),
+                              force_unit=(display.force, display.force_si),
+                              stress_unit=(display.stress, display.stress_si), fy=case.fy)
+    else:
+        extra = {}
     text = to_json(res) if args.json else None
     if args.json and args.json != "-":
         write_text_atomic(args.json, text + "\n")
@@ -115,6 +123,9 @@ def _cmd_check(args: argparse.Namespace) -> int:
         from .plot import save_figure
 
         save_figure(figures[0], f)
+        p = Path(f)
+        for name, fig in extra.items():
+            save_figure(fig, p.with_name(f"{p.stem}-{name}{p.suffix}"))
     if args.json == "-":
         print(text)
     else:

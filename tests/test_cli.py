@@ -253,3 +253,18 @@ def test_nothing_half_written_on_bad_input(tmp_path):
     assert out.returncode == 2
     assert not target.exists() and not plot.exists()
     assert list(tmp_path.iterdir()) == [p]
+
+
+def test_plot_writes_figures_of_optional_analyses(tmp_path):
+    # An imperfect-column case gets its path, diagram and comparison charts beside the mode shapes;
+    # a design case its utilisation chart.
+    out = run("check", str(CASES / "crooked_post.toml"), "--plot", str(tmp_path / "cp.png"))
+    assert out.returncode == 0, out.stderr
+    names = {p.name for p in tmp_path.iterdir()}
+    for axis in ("major", "minor"):
+        for kind in ("path", "diagrams", "comparison"):
+            f = tmp_path / f"cp-{kind}-{axis}.png"
+            assert f.name in names and f.read_bytes().startswith(b"\x89PNG")
+    out = run("check", str(CASES / "design_hall_column.toml"), "--plot", str(tmp_path / "dh.svg"))
+    assert out.returncode == 0, out.stderr
+    assert b"<svg" in (tmp_path / "dh-utilisation.svg").read_bytes()
