@@ -35,6 +35,8 @@ Coordinate system
 
 from __future__ import annotations
 
+import abc
+
 import math
 import numbers
 from dataclasses import dataclass
@@ -467,17 +469,19 @@ def _check_flanged(shape: "ISection | Channel | Tee", flanges: int, fillets_acro
     _require(flanges * (tf + r) <= h, "r", f"fillets {r:g} m do not fit in the web depth of h = {h:g} m")
 
 
-class _Shape:
+class _Shape(abc.ABC):
     """Common machinery; subclasses provide ``_region`` and ``torsion_constant``."""
 
     __slots__ = ()
     kind: ClassVar[str] = ""
 
-    def _region(self) -> _Region:  # pragma: no cover - abstract
-        raise NotImplementedError
+    @abc.abstractmethod
+    def _region(self) -> _Region:
+        """The outline of the section (exact lines and arcs)."""
 
-    def torsion_constant(self) -> float:  # pragma: no cover - abstract
-        raise NotImplementedError
+    @abc.abstractmethod
+    def torsion_constant(self) -> float:
+        """St Venant torsion constant J [m^4]."""
 
     # -- basic integrals ----------------------------------------------------
     def _moments(self) -> tuple[float, float, float, float, float, float]:
