@@ -22,6 +22,10 @@ def test_readme_python_example_runs():
     assert out.returncode == 0, out.stderr
     assert "lowest load factor" in out.stdout
     assert re.search(r"segment 1: .* K = \d+\.\d{3}", out.stdout)
+    # the output the README shows is the output it gives
+    text = (ROOT / "README.md").read_text(encoding="utf-8")
+    shown = re.search(r"It prints:\n\n```text\n(.*?)```", text, flags=re.S).group(1)
+    assert out.stdout == shown
 
 
 def test_ci_runs_the_readme_test_command():
