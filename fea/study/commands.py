@@ -159,6 +159,22 @@ def bounds_dict(study, cb) -> dict:
 # text
 
 
+def _display_unit(si_unit: str, d) -> tuple[str, float]:
+    """The case's display unit for a quantity given in ``si_unit``, and the SI value of one such unit."""
+    L, F = d.length, d.force
+    table = {
+        "m": (L, d.length_si),
+        "N": (F, d.force_si),
+        "N/m": (f"{F}/{L}", d.force_si / d.length_si),
+        "N*m/rad": (f"{F}*{L}/rad", d.force_si * d.length_si),
+        "N/m^2": (f"{F}/{L}^2", d.force_si / d.length_si**2),
+        "Pa": (d.stress, d.stress_si),
+        "m^2": (f"{L}^2", d.length_si**2),
+        "m^4": (f"{L}^4", d.length_si**4),
+    }
+    return table.get(si_unit, (si_unit, 1.0))
+
+
 def _stiff(v: float, kind: str, d) -> str:
     from ..io.summary import fmt
 
@@ -324,7 +340,7 @@ def _run_sweep(args) -> int:
           f"tolerance {res.tolerance:.0e}")
     if len(ranges) == 1:
         r = ranges[0]
-        unit = r.key.si_unit
+        unit, scale = _display_unit(r.key.si_unit, study.case.display)
         print(f"  {r.key.text + ' [' + unit + ']':>28} {'load factor':>12} {'axis':>8} "
               + " ".join(f"{'K seg ' + str(s + 1):>9}" for s in res.segments))
         Kg = res.K_governing()
@@ -332,7 +348,7 @@ def _run_sweep(args) -> int:
         shown = sorted(set(list(range(0, r.values.size, step)) + [r.values.size - 1]))
         for i in shown:
             v = r.values[i]
-            vt = "free" if r.key.is_spring and v == 0 else "rigid" if math.isinf(v) else fmt(v)
+            vt = "free" if r.key.is_spring and v == 0 else "rigid" if math.isinf(v) else fmt(v / scale)
             print(f"  {vt:>28} {fmt(res.governing[i]):>12} {res.axes[res.governing_axis[i]]:>8} "
                   + " ".join(f"{'-' if math.isnan(k) else f'{k:.4f}':>9}" for k in Kg[i]))
         if len(shown) < r.values.size:
