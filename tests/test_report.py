@@ -24,8 +24,35 @@ from fea.units import to_display
 
 CASES = sorted((Path(__file__).resolve().parent.parent / "cases").glob("*.toml"))
 DATE = "2026-12-01"
-#: Published names with digits the report may print as they are.
-NAMES = {"SHA-256"}
+#: Published names with digits the report may print as they are: the hash algorithm, and the subscripts of
+#: the partial factors gamma_M0, gamma_M1, gamma_M2 (EN 1993-1-1:2005 6.1).
+NAMES = {"SHA-256", "M0", "M1", "M2"}
+#: Constants of the published formulas the design part writes out, by formula (``const:<formula>``); each
+#: set lists the numbers printed in the formula as the source gives it.
+CONSTANTS = {
+    # utilisation N_Ed / N_Rd <= 1 (common practice: every standard here)
+    "check": {"1"},
+    # EN 1993-1-1:2005 6.3.1.2(1) Eq. (6.49): Phi = 0.5 [1 + alpha (lambda_bar - 0.2) + lambda_bar^2],
+    # chi = 1 / (Phi + sqrt(Phi^2 - lambda_bar^2)) <= 1.0; 6.3.1.2(4): no reduction for lambda_bar <= 0.2
+    "EN 1993-1-1 6.3.1.2": {"0.5", "1", "0.2"},
+    # EN 1993-1-1:2005 6.2.3(2) Eq. (6.7): N_u,Rd = 0.9 A_net fu / gamma_M2
+    "EN 1993-1-1 6.2.3": {"0.9"},
+    # AISC 360-16 E3 (E3-2) Fcr = 0.658^(Fy/Fe) Fy when Fy/Fe <= 2.25, (E3-3) Fcr = 0.877 Fe (from memory)
+    "AISC 360 E3": {"0.658", "0.877", "2.25"},
+    # AS 4100 6.3.3 (from memory): lambda_n = (le/r) sqrt(kf) sqrt(fy/250),
+    # alpha_a = 2100 (lambda_n - 13.5) / (lambda_n^2 - 15.3 lambda_n + 2050), eta = 0.00326 (lambda - 13.5),
+    # xi = ((lambda/90)^2 + 1 + eta) / (2 (lambda/90)^2), alpha_c = xi (1 - sqrt(1 - (90 / (xi lambda))^2))
+    "AS 4100 6.3.3": {"250", "2100", "13.5", "15.3", "2050", "0.00326", "90", "1", "2"},
+    # AS 4100 7.2 (from memory): Nt = min(Ag fy, 0.85 kt An fu), kt = 1 here
+    "AS 4100 7.2": {"0.85", "1"},
+    # BS 5950-1:2000 Annex C.1, C.2: lambda0 = 0.2 sqrt(pi^2 E / py), eta = a (lambda - lambda0) / 1000,
+    # phi = (py + (eta + 1) pE) / 2, eta >= 0 (the 0 also as the subscript of lambda0)
+    "BS 5950-1 Annex C": {"0.2", "1000", "1", "2", "0"},
+    # Perry-Robertson: B = (fy + (1 + eta) sigma_e) / 2 (Timoshenko & Gere, from memory)
+    "Perry-Robertson": {"1", "2"},
+    # Rankine-Gordon: sigma = fc / (1 + a (L/r)^2), a written 1/n (common practice)
+    "Rankine-Gordon": {"1"},
+}
 SUP = str.maketrans("⁰¹²³⁴⁵⁶⁷⁸⁹⁻", "0123456789-")
 NUMBER = re.compile(r"^(-?\d+)(?:\.(\d+))?(?: × 10([⁻⁰¹²³⁴⁵⁶⁷⁸⁹]+))?$")
 
@@ -180,6 +207,8 @@ def check_numbers(html: str, case, data: dict, warnings: list[str] = ()) -> int:
             _resolve(data, path)  # the label names a key of the JSON result
         elif kind == "name":  # a published name that contains digits, e.g. of the hash algorithm
             assert text == path and text in NAMES
+        elif kind == "const":  # a constant of a published formula written out in the design part
+            assert text in CONSTANTS[path], f"{text!r} is not a constant of {path}"
         elif kind == "report":
             assert path == "date" and text == DATE
         elif kind == "run":
@@ -394,3 +423,75 @@ def test_report_in_headless_chromium(runs, browser, tmp_path, name):
         sizes = _pdf_pages(pdfs[paper])
         assert len(sizes) >= n_parts, f"{paper}: {len(sizes)} pages for {n_parts} parts"
         assert all(abs(sw - w) < 1.5 and abs(sh - h) < 1.5 for sw, sh in sizes), (paper, sizes[:2])
+
+
+# -- the design part written out as a hand calculation ----------------------------------------------
+
+#: The stepped test column of the design tests, with uplift at the top (the upper part in tension) and a
+#: net section at holes in the upper part.
+NET_SECTION = '\n[[design.segment]]\nsegment = 2\nA_net = "3800 mm^2"\n'
+
+
+DESIGNS = {
+    "EN 1993-1-1": 'standard = "EN 1993-1-1"\ncurve_major = "b"\ncurve_minor = "c"',
+    "AISC 360 LRFD": 'standard = "AISC 360"',
+    "AISC 360 ASD": 'standard = "AISC 360"\nmethod = "ASD"',
+    "AS 4100": 'standard = "AS 4100"\nalpha_b_major = 0\nalpha_b_minor = -0.5',
+    "BS 5950-1": 'standard = "BS 5950-1"\ncurve_major = "b"\ncurve_minor = "c"',
+    "Perry-Robertson": 'standard = "Perry-Robertson"\nfactor_of_safety = 1.5',
+    "Rankine-Gordon": 'standard = "Rankine-Gordon"\na = "1/7500"',
+    "working-stress": 'standard = "working-stress"\nfactor_of_safety = 2.5\nsigma_allow = "140 MPa"',
+}
+
+#: Symbols each standard's written-out compression check must show (its formula lines).
+SYMBOLS = {
+    "EN 1993-1-1": ("<i>Φ</i>", "<i>χ</i>", "<sub>b,Rd</sub>", "<i>λ̄</i>"),
+    "AISC 360 LRFD": ("<sub>e</sub>", "<sub>cr</sub>", "<i>φ</i><sub>c</sub>"),
+    "AISC 360 ASD": ("<i>Ω</i><sub>c</sub>",),
+    "AS 4100": ("<sub>n</sub>", "<i>α</i><sub>a</sub>", "<i>η</i>", "<i>ξ</i>", "<i>α</i><sub>c</sub>"),
+    "BS 5950-1": ("<sub>E</sub>", '<i>λ</i><sub><span class="t" data-src="const:BS 5950-1 Annex C">0</span></sub>',
+                  "<i>φ</i>", "<sub>c</sub>"),
+    "Perry-Robertson": ("<i>σ</i><sub>e</sub>", "<i>B</i>", "FoS"),
+    "Rankine-Gordon": ("<sub>c</sub> / [",),
+    "working-stress": ("<sub>allow</sub>", "<sub>cr</sub>"),
+}
+
+
+@pytest.mark.parametrize("name", list(DESIGNS))
+def test_design_checks_are_written_out_with_every_number_traced(name):
+    from fea.io.case import parse_case
+    from fea.runner import run_case
+
+    from .test_design_integration import stepped
+
+    case = parse_case(stepped("[design]\n" + DESIGNS[name] + NET_SECTION, top="-60 kN", step="900 kN"))
+    res = run_case(case)
+    data = result_dict(res)
+    html = build_report(res, data, {}, date=DATE)
+    check_numbers(html, case, data)  # every substituted number is the JSON's (or a named constant)
+    checks = data["design"]["checks"]
+    assert {c["kind"] for c in checks} == {"compression", "tension"}
+    # one written-out block per check, the governing one marked, and every verdict stated
+    assert html.count('<div class="calc') == len(checks)
+    assert html.count('<div class="calc gov">') == 1
+    assert html.count("→  passes") + html.count("→  FAILS") == len(checks)
+    for symbol in SYMBOLS[name]:
+        assert symbol in html, symbol
+    # the substituted inputs and intermediates are sourced from the check's details
+    srcs = {r["src"] for r in parse_page(html).sourced}
+    for n, c in enumerate(checks):
+        assert f"json:design/checks/{n}/utilisation" in srcs and f"json:design/checks/{n}/resistance_N" in srcs
+        if c["kind"] == "compression":
+            assert f"json:design/checks/{n}/N_cr_N" in srcs
+            assert f"json:design/checks/{n}/details/A_m2" in srcs
+    assert "Numbers substituted" not in html and "Slenderness name" not in html
+    md = build_markdown(res, data, {}, date=DATE)
+    assert md.count("→  passes") + md.count("→  FAILS") == len(checks)
+
+
+def test_imperfect_part_uses_engineering_wording(runs):
+    case, res, data, html = runs["crooked_post"]
+    for label in ("Perry-Robertson first-yield force", "Elements of the final mesh", "Elastic critical force"):
+        assert label in html
+    for raw in (">Perry force<", ">N elements<", ">N fibres<"):
+        assert raw not in html

@@ -194,7 +194,9 @@ class DesignCheck:
     governs : what limits the resistance ("buckling", "material", "gross", "net", ...)
     effective_length_factor, k_meaningful : from the buckling analysis
     note : remarks
-    details : further intermediate values (name -> float)
+    details : further intermediate values and the inputs substituted (name -> float)
+    labels : textual choices of the method (name -> str): the curve, the design method, the branch
+        of a formula that applied
     """
 
     segment: int
@@ -217,6 +219,7 @@ class DesignCheck:
     k_meaningful: bool = True
     note: str = ""
     details: Mapping[str, float] = field(default_factory=dict)
+    labels: Mapping[str, str] = field(default_factory=dict)
 
     @property
     def passed(self) -> bool:
@@ -281,7 +284,9 @@ def compression_check(standard: str, params: Mapping[str, Any], axis: str, m: Me
     Returns
     -------
     dict with clause, parameter, slenderness, slenderness_name, reduction,
-    resistance, governs and details (the fields of :class:`DesignCheck`).
+    resistance, governs, details and labels (the fields of :class:`DesignCheck`).
+    ``details`` carries every number a written-out calculation substitutes
+    (the inputs A, fy, E and factors as well as the intermediate values).
 
     References
     ----------
@@ -301,7 +306,10 @@ def compression_check(standard: str, params: Mapping[str, Any], axis: str, m: Me
         return dict(clause=r.clause, parameter=f"curve {curve} (alpha = {r.alpha:g}), gamma_M1 = {r.gamma_M1:g}",
                     slenderness=r.lambda_bar, slenderness_name="lambda_bar", reduction=r.chi, resistance=res,
                     governs="buckling" if r.N_b_Rd < N_c else "material",
-                    details={"alpha": r.alpha, "phi": r.phi, "N_pl_N": r.N_pl, "N_c_Rd_N": N_c})
+                    details={"alpha": r.alpha, "phi": r.phi, "N_pl_N": r.N_pl, "N_c_Rd_N": N_c,
+                             "A_m2": A, "fy_Pa": fy, "gamma_M0": params["gamma_M0"], "gamma_M1": r.gamma_M1,
+                             "N_b_Rd_N": r.N_b_Rd},
+                    labels={"curve": curve, "branch": "plateau" if r.lambda_bar <= 0.2 else "curve"})
     if standard == "AISC 360":
         r = aisc360_e3(A, fy, N_cr=N_cr, E=E)
         method = params["method"]
@@ -310,7 +318,10 @@ def compression_check(standard: str, params: Mapping[str, Any], axis: str, m: Me
         return dict(clause=r.clause, parameter=label, slenderness=r.slenderness, slenderness_name="Lc/r",
                     reduction=r.reduction, resistance=res,
                     governs="buckling" if r.reduction < 1.0 else "material",
-                    details={"Fe_Pa": r.Fe, "Fy_over_Fe": r.ratio, "Fcr_Pa": r.Fcr, "Pn_N": r.Pn})
+                    details={"Fe_Pa": r.Fe, "Fy_over_Fe": r.ratio, "Fcr_Pa": r.Fcr, "Pn_N": r.Pn,
+                             "A_m2": A, "Fy_Pa": fy, "E_Pa": E, "phi_c": r.phi_c, "Omega_c": r.omega_c},
+                    labels={"method": method, "equation": r.clause.rsplit("(", 1)[-1].rstrip(")"),
+                            "branch": "inelastic" if r.ratio <= 2.25 else "elastic"})
     if standard == "AS 4100":
         alpha_b = _axis_value(params, "alpha_b", axis)
         if alpha_b is None:
@@ -320,7 +331,9 @@ def compression_check(standard: str, params: Mapping[str, Any], axis: str, m: Me
                     slenderness=r.le_r, slenderness_name="le/r", reduction=r.alpha_c, resistance=r.phi_Nc,
                     governs="buckling" if r.alpha_c < 1.0 else "material",
                     details={"lambda_n": r.lambda_n, "alpha_a": r.alpha_a, "lambda": r.lambda_, "eta": r.eta,
-                             "Ns_N": r.Ns, "Nc_N": r.Nc})
+                             "Ns_N": r.Ns, "Nc_N": r.Nc, "A_m2": A, "fy_Pa": fy, "E_Pa": E, "kf": r.kf,
+                             "alpha_b": r.alpha_b, "xi": r.xi, "phi": r.phi},
+                    labels={"branch": "plateau" if r.lambda_ <= 13.5 else "curve"})
     if standard == "BS 5950-1":
         curve = _axis_value(params, "curve", axis)
         if curve is None:
@@ -329,7 +342,9 @@ def compression_check(standard: str, params: Mapping[str, Any], axis: str, m: Me
         return dict(clause=r.clause, parameter=f"strut curve {curve} (Robertson a = {r.a:g}), py = fy",
                     slenderness=r.slenderness, slenderness_name="L_E/r", reduction=r.reduction,
                     resistance=r.force, governs="buckling" if r.reduction < 1.0 else "material",
-                    details={"pc_Pa": r.pc, "pE_Pa": r.pE, "lambda0": r.lambda0, "eta": r.eta})
+                    details={"pc_Pa": r.pc, "pE_Pa": r.pE, "lambda0": r.lambda0, "eta": r.eta, "A_m2": A,
+                             "py_Pa": fy, "E_Pa": E, "a": r.a, "phi_Pa": r.phi},
+                    labels={"curve": curve})
     lam = equivalent_slenderness(A, N_cr, E)
     if standard == "Perry-Robertson":
         fos = params["factor_of_safety"]
@@ -337,7 +352,10 @@ def compression_check(standard: str, params: Mapping[str, Any], axis: str, m: Me
         return dict(clause=r.clause, parameter=f"eta = {r.coefficient:g} L/r, FoS = {fos:g}", slenderness=lam,
                     slenderness_name="L/r", reduction=r.reduction, resistance=r.stress * A / fos,
                     governs="buckling" if r.reduction < 1.0 else "material",
-                    details={"eta": r.eta, "sigma_e_Pa": r.sigma_e, "stress_Pa": r.stress})
+                    details={"eta": r.eta, "sigma_e_Pa": r.sigma_e, "stress_Pa": r.stress, "A_m2": A,
+                             "fy_Pa": fy, "E_Pa": E, "coefficient": r.coefficient, "factor_of_safety": fos,
+                             # B of the closed form s = fy sigma_e / (B + sqrt(B^2 - fy sigma_e))
+                             "B_Pa": 0.5 * (fy + (1.0 + r.eta) * r.sigma_e)})
     if standard == "Rankine-Gordon":
         fos = params["factor_of_safety"]
         fc = params.get("crushing_stress") or fy
@@ -349,7 +367,8 @@ def compression_check(standard: str, params: Mapping[str, Any], axis: str, m: Me
         return dict(clause=r.clause, parameter=f"a = 1/{1.0 / r.a:.6g}, FoS = {fos:g}", slenderness=lam,
                     slenderness_name="L/r", reduction=r.reduction, resistance=r.stress * A / fos,
                     governs="buckling" if r.reduction < 1.0 else "material",
-                    details={"crushing_stress_Pa": fc, "stress_Pa": r.stress})
+                    details={"crushing_stress_Pa": fc, "stress_Pa": r.stress, "A_m2": A, "E_Pa": E, "a": r.a,
+                             "a_inverse": 1.0 / r.a, "factor_of_safety": fos})
     if standard == "working-stress":
         sa = params.get("sigma_allow") or m.sigma_allow
         if sa is None:
@@ -358,7 +377,10 @@ def compression_check(standard: str, params: Mapping[str, Any], axis: str, m: Me
         r = working_stress(A, N_cr, sa, _need(params, "factor_of_safety", standard))
         return dict(clause=r.clause, parameter=f"FoS = {r.factor_of_safety:g}, sigma_allow = {sa / 1e6:.4g} MPa",
                     slenderness=lam, slenderness_name="L/r", reduction=r.reduction, resistance=r.force,
-                    governs=r.governs, details={"sigma_cr_Pa": r.sigma_cr, "allowable_stress_Pa": r.stress})
+                    governs=r.governs, details={"sigma_cr_Pa": r.sigma_cr, "allowable_stress_Pa": r.stress,
+                                                "A_m2": A, "E_Pa": E, "sigma_allow_Pa": sa,
+                                                "factor_of_safety": r.factor_of_safety,
+                                                "buckling_stress_Pa": r.sigma_cr / r.factor_of_safety})
     raise ModelError("design.standard", f"{standard!r} is not known")  # pragma: no cover - checked by DesignSpec
 
 
@@ -385,27 +407,41 @@ def tension_check(standard: str, params: Mapping[str, Any], m: MemberData) -> di
     if A_net is not None and fu is None and standard in ("EN 1993-1-1", "AISC 360", "AS 4100"):
         raise ModelError("material.fu", f"missing: the net-section check of {standard} needs fu")
     An = A if A_net is None else A_net
+    # the numbers a written-out calculation substitutes (A_net and fu only with a net section)
+    base: dict[str, float] = {"A_m2": A}
+    if A_net is not None:
+        base["A_net_m2"] = A_net
+        if fu is not None:
+            base["fu_Pa"] = fu
     if standard == "EN 1993-1-1":
         r = en1993_tension(A, fy, A_net=A_net, fu=fu if A_net is not None else None,
                            gamma_M0=params["gamma_M0"], gamma_M2=params["gamma_M2"])
         return dict(clause=r.clause, formula="N_t,Rd = min(A fy / gamma_M0, 0.9 A_net fu / gamma_M2)",
                     parameter=f"gamma_M0 = {r.gamma_M0:g}, gamma_M2 = {r.gamma_M2:g}", resistance=r.N_t_Rd,
-                    governs=r.governs)
+                    governs=r.governs, details={**base, "fy_Pa": fy, "gamma_M0": r.gamma_M0,
+                                                "gamma_M2": r.gamma_M2, "N_pl_Rd_N": r.N_pl_Rd,
+                                                "N_u_Rd_N": r.N_u_Rd})
     if standard == "AISC 360":
         lrfd = params["method"] == "LRFD"
         y = fy * A * (0.90 if lrfd else 1 / 1.67)
         u = fu * An * (0.75 if lrfd else 1 / 2.00) if A_net is not None else math.inf
+        factors = ({"phi_t_yield": 0.90, "phi_t_rupture": 0.75} if lrfd else
+                   {"Omega_t_yield": 1.67, "Omega_t_rupture": 2.00})
         return dict(clause="AISC 360 D2", formula="min(Fy Ag, Fu Ae) with phi_t / Omega_t, Ae = A_net (U = 1)",
-                    parameter="LRFD" if lrfd else "ASD", resistance=min(y, u), governs="gross" if y <= u else "net")
+                    parameter="LRFD" if lrfd else "ASD", resistance=min(y, u), governs="gross" if y <= u else "net",
+                    details={**base, "Fy_Pa": fy, **factors, "yield_N": y, "rupture_N": u},
+                    labels={"method": "LRFD" if lrfd else "ASD"})
     if standard == "AS 4100":
         y = fy * A
         u = 0.85 * An * fu if A_net is not None else math.inf
         return dict(clause="AS 4100 7.2", formula="phi Nt = phi min(Ag fy, 0.85 kt An fu), kt = 1",
                     parameter=f"phi = {params['phi']:g}", resistance=params["phi"] * min(y, u),
-                    governs="gross" if y <= u else "net")
+                    governs="gross" if y <= u else "net",
+                    details={**base, "fy_Pa": fy, "phi": params["phi"], "yield_N": y, "rupture_N": u})
     if standard == "BS 5950-1":
         return dict(clause="BS 5950-1 4.6.1", formula="Pt = py Ae, Ae = A_net (Ke = 1) or A",
-                    parameter="py = fy", resistance=fy * An, governs="net" if A_net is not None else "gross")
+                    parameter="py = fy", resistance=fy * An, governs="net" if A_net is not None else "gross",
+                    details={**base, "py_Pa": fy})
     if standard in ("Perry-Robertson", "Rankine-Gordon"):
         f = params.get("crushing_stress") or fy
         if f is None:
@@ -413,13 +449,14 @@ def tension_check(standard: str, params: Mapping[str, Any], m: MemberData) -> di
         fos = params["factor_of_safety"]
         return dict(clause="yield of the section", formula="N = f A / FoS (A_net when given)",
                     parameter=f"FoS = {fos:g}", resistance=f * An / fos,
-                    governs="net" if A_net is not None else "gross")
+                    governs="net" if A_net is not None else "gross",
+                    details={**base, "stress_Pa": f, "factor_of_safety": fos})
     sa = params.get("sigma_allow") or m.sigma_allow
     if sa is None:
         raise ModelError("material.sigma_allow", "missing: the working-stress check needs sigma_allow")
     return dict(clause="working stress in tension", formula="N = sigma_allow A (A_net when given)",
                 parameter=f"sigma_allow = {sa / 1e6:.4g} MPa", resistance=sa * An,
-                governs="net" if A_net is not None else "gross")
+                governs="net" if A_net is not None else "gross", details={**base, "sigma_allow_Pa": sa})
 
 
 # ---------------------------------------------------------------------------
@@ -472,7 +509,7 @@ def design_check(spec: DesignSpec, members: Sequence[MemberData], forces: Sequen
                     reduction=out["reduction"], N_cr=N_cr, N_Ed=N_c, resistance=out["resistance"],
                     utilisation=N_c / out["resistance"], governs=out["governs"],
                     effective_length_factor=b.effective_length_factor, k_meaningful=b.meaningful, note=note,
-                    details=MappingProxyType(out["details"])))
+                    details=MappingProxyType(out["details"]), labels=MappingProxyType(out.get("labels", {}))))
         N_t = lf * f.tension
         if N_t > 0:
             out = tension_check(spec.standard, params, m)
@@ -480,7 +517,8 @@ def design_check(spec: DesignSpec, members: Sequence[MemberData], forces: Sequen
                 segment=i, name=m.name, axis="-", kind="tension", standard=spec.standard, clause=out["clause"],
                 formula=out["formula"], parameter=out["parameter"], slenderness=math.nan, slenderness_name="",
                 reduction=1.0, N_cr=math.nan, N_Ed=N_t, resistance=out["resistance"],
-                utilisation=N_t / out["resistance"], governs=out["governs"]))
+                utilisation=N_t / out["resistance"], governs=out["governs"],
+                details=MappingProxyType(out.get("details", {})), labels=MappingProxyType(out.get("labels", {}))))
     if not checks:
         raise ModelError("load", "no segment carries axial force: nothing to design")
     return DesignResult(standard=spec.standard, load_factor=lf, checks=tuple(checks), notes=tuple(notes))

@@ -271,6 +271,7 @@ def design_json(r: DesignResult) -> dict[str, Any]:
                 "k_meaningful": c.k_meaningful,
                 "note": c.note,
                 "details": {k: _num(v) for k, v in c.details.items()},
+                "labels": dict(c.labels),
             }
             for c in r.checks
         ],

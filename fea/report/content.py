@@ -110,7 +110,7 @@ def header_rows(data: dict, case, date: str) -> list[tuple]:
     """The identification rows printed under the title."""
     d = case.display
     return [
-        (("Case file",), (T(data.get("case_file") or "(from text)", "json:case_file"),)),
+        (("Case file",), (T(data["case_file"], "json:case_file"),) if data.get("case_file") else ("(given as text)",)),
         (("Hash of the case file, ", T("SHA-256", "name:SHA-256")), (T(data["case_sha256"], "json:case_sha256"),)),
         (("Program",), (T(data["tool"]["name"], "json:tool/name"), " version ",
                         T(data["tool"]["version"], "json:tool/version"))),
@@ -392,7 +392,54 @@ def _buckling(res: CaseResults, data: dict, u: Units, mode_figures: list) -> Par
 # optional parts, rendered from their JSON
 
 
+#: Engineering wording of the keys of the imperfect-column part (the key still names the source of the label).
+KEY_LABELS = {
+    # imperfect column, per plane
+    "analysis": "Analyses run",
+    "status": "How the analysis ended",
+    "success": "Completed",
+    "message": "Solver message",
+    "critical_load_factor": "Elastic critical load factor",
+    "first_yield_load_factor": "First-yield load factor",
+    "first_yield_source": "First yield taken from",
+    "second_order_first_yield_load_factor": "First-yield load factor, second-order elastic analysis",
+    "fibre_first_yield_load_factor": "First-yield load factor, nonlinear fibre analysis",
+    "limit_load_factor": "Ultimate (limit) load factor",
+    # the initial bow
+    "shape": "Shape of the bow",
+    "largest_bow_m": "Largest bow",
+    "amplitude_m": "Bow amplitude as given",
+    "ratio": "Length-to-bow ratio (bow given as L / ratio)",
+    # comparison per segment
+    "segment": "Segment",
+    "axial_force_N": "Axial force",
+    "critical_force_N": "Elastic critical force",
+    "euler_force_N": "Euler force (segment alone, pinned ends)",
+    "perry_force_N": "Perry-Robertson first-yield force",
+    "first_yield_force_N": "First-yield force",
+    "limit_force_N": "Ultimate (limit) force",
+    "euler_load_factor": "Euler load factor",
+    "perry_load_factor": "Perry-Robertson first-yield load factor",
+    "note": "Note",
+    # second-order elastic analysis and nonlinear path
+    "n_elements": "Elements of the final mesh",
+    "tolerance": "Relative tolerance",
+    "discretisation_error": "Estimated relative discretisation error",
+    "converged": "Converged",
+    "first_yield_height_m": "Height of first yield",
+    "first_yield_offset_m": "Distance of the first-yielding fibre from the bending axis",
+    "limit_accuracy": "Relative accuracy of the ultimate load",
+    "control_height_m": "Height whose deflection is plotted (largest deflection)",
+    "n_fibres": "Fibres per section",
+    "n_steps": "Arc-length steps",
+    "n_iter": "Equilibrium iterations, all steps",
+    "max_residual": "Largest relative residual of the stored points",
+}
+
+
 def _label(key: str, path: str) -> T:
+    if key in KEY_LABELS and path.startswith("imperfect/"):
+        return T(KEY_LABELS[key], f"key:{path}")
     base = key
     for suffix in ("_N_per_m", "_N_m", "_Nm", "_Pa", "_m4", "_m3", "_m2", "_N", "_m", "_rad"):
         if key.endswith(suffix):
@@ -507,69 +554,10 @@ def _record_table(records: list[dict], path: str, cols: tuple[str, ...], u: Unit
     return Table(header, rows, caption=caption, numeric=numeric)
 
 
-_MISSING = object()
-
-
-def _get(obj: dict, key: str) -> Any:
-    for part in key.split("/"):
-        if not isinstance(obj, dict) or part not in obj:
-            return _MISSING
-        obj = obj[part]
-    return obj
-
-
 def _design_blocks(part: dict, u: Units) -> list:
-    blocks: list = [Para(("The design check as run by the tool: for each segment and plane, the formula and clause "
-                          "used, the numbers put into it, the resistance and the utilisation.",))]
-    blocks.append(_qtable(_rows(part, "design", ("standard", "load_factor", "passed", "max_utilisation"), u)))
-    gov = part.get("governing")
-    if isinstance(gov, dict):
-        blocks.append(Heading(3, "Governing case"))
-        blocks.append(_qtable(_rows(gov, "design/governing", tuple(gov), u)))
-    checks = part.get("checks") or []
-    if checks:
-        blocks.append(Heading(3, "Checks"))
-        blocks.append(_record_table(checks, "design/checks", ("segment", "name", "axis", "kind", "N_Ed_N", "N_cr_N",
-                                                              "resistance_N", "utilisation", "passed", "governs"), u,
-                                    caption=("One row per segment and plane; the details of each follow.",)))
-        pairs: list[tuple[int, dict]] = []
-        for n, c in enumerate(checks):
-            if not any(c.get("formula") == o.get("formula") and c.get("clause") == o.get("clause") for _, o in pairs):
-                pairs.append((n, c))
-        blocks.append(Heading(3, "Formulas and clauses"))
-        blocks.append(Bullets(tuple(
-            (*_cell("clause", c.get("clause", ""), f"design/checks/{n}/clause", u), ": ",
-             *_cell("formula", c.get("formula", ""), f"design/checks/{n}/formula", u)) for n, c in pairs)))
-        blocks.append(Heading(3, "Numbers substituted"))
-        keys: list[str] = []
-        for c in checks:
-            for k, v in c.items():
-                if _scalar(v) and k not in ("standard", "clause", "formula") and k not in keys:
-                    keys.append(k)
-            for k, v in (c.get("details") or {}).items():
-                if _scalar(v) and f"details/{k}" not in keys:
-                    keys.append(f"details/{k}")
-        per = 3
-        for start in range(0, len(checks), per):
-            group = list(range(start, min(start + per, len(checks))))
-            header = (("Quantity",), *(("Check ", Q(n + 1, f"ord:{n + 1}", "", 6)) for n in group), ("Unit",))
-            rows = []
-            for k in keys:
-                leaf = k.split("/")[-1]
-                first = next(n for n in range(len(checks)) if _get(checks[n], k) is not _MISSING)
-                row = [(_label(leaf, f"design/checks/{first}/{k}"),)]
-                for n in group:
-                    v = _get(checks[n], k)
-                    row.append(("—",) if v is _MISSING else _cell(leaf, v, f"design/checks/{n}/{k}", u))
-                row.append((u.by_suffix(leaf)[1],))
-                rows.append(tuple(row))
-            blocks.append(Table(tuple(header), tuple(rows), numeric=tuple(range(1, len(group) + 1))))
-    notes = part.get("notes") or []
-    if notes:
-        blocks.append(Heading(3, "Notes"))
-        blocks.append(Bullets(tuple((T(t, f"json:design/notes/{i}"),) for i, t in enumerate(notes))))
-    if part.get("caution"):
-        blocks.append(Note((T(part["caution"], "json:design/caution"),)))
+    from .design_calc import design_blocks
+
+    blocks = design_blocks(part, u)
     rest = {k: v for k, v in part.items() if k not in ("standard", "load_factor", "passed", "max_utilisation",
                                                        "governing", "checks", "notes", "caution")}
     if rest:
@@ -602,11 +590,11 @@ def _imperfect_blocks(part: list, u: Units) -> list:
                                         u)))
         comp = r.get("comparison") or []
         if comp:
-            blocks.append(Heading(4, "Comparison per segment (forces)"))
+            blocks.append(Heading(4, "Comparison per segment: axial forces"))
             blocks.append(_record_table(comp, f"{p}/comparison", ("segment", "axial_force_N", "critical_force_N",
                                                                   "euler_force_N", "perry_force_N",
                                                                   "first_yield_force_N", "limit_force_N", "note"), u))
-            blocks.append(Heading(4, "Comparison per segment (load factors)"))
+            blocks.append(Heading(4, "Comparison per segment: load factors"))
             blocks.append(_record_table(comp, f"{p}/comparison", ("segment", "critical_load_factor",
                                                                   "euler_load_factor", "perry_load_factor",
                                                                   "first_yield_load_factor", "limit_load_factor"), u))
@@ -659,9 +647,12 @@ def _optional_part(name: str, part: Any, res: CaseResults, u: Units, display: Di
     if figures:
         figs = PART_FIGURES[name](res, part, display) if name in PART_FIGURES else _default_figures(name, res,
                                                                                                       display)
+        # the design figures sit beside the summary table they draw; other parts end with their figures
+        at = next((i + 1 for i, b in enumerate(blocks) if isinstance(b, Table)), len(blocks)) \
+            if name == "design" else len(blocks)
         for k, (fig, caption) in enumerate(figs):
-            blocks.append(Figure(_svg_of(fig), (caption,) if isinstance(caption, str) else tuple(caption),
-                                 f"{name}-{k + 1}"))
+            blocks.insert(at + k, Figure(_svg_of(fig), (caption,) if isinstance(caption, str) else tuple(caption),
+                                         f"{name}-{k + 1}"))
     return Part(name, title, blocks)
 
 

@@ -18,6 +18,12 @@ Sources
     a warning raised while the case was run.
 ``report:date``
     the date the report was written.
+``name:M1``
+    a published name or symbol that contains digits, printed as it is (the hash
+    algorithm, the subscripts of the partial factors of EN 1993-1-1 6.1).
+``const:AISC 360 E3``
+    a constant of a published formula (0.658, 0.877, 2.25 here), shown where the
+    formula is written out; the part after ``const:`` names the formula.
 """
 
 from __future__ import annotations
@@ -28,8 +34,8 @@ from typing import Union
 
 from ..units import to_display
 
-__all__ = ["Q", "T", "Em", "Sub", "Inline", "Heading", "Para", "Table", "Figure", "Bullets", "Note", "Part",
-           "fmt_number", "convert", "unit_label", "q"]
+__all__ = ["Q", "T", "Em", "Sub", "Sup", "Inline", "Heading", "Para", "Table", "Figure", "Bullets", "Note",
+           "CalcLine", "Calc", "Part", "fmt_number", "convert", "unit_label", "q"]
 
 _SUP = str.maketrans("0123456789-", "⁰¹²³⁴⁵⁶⁷⁸⁹⁻")
 MINUS = "\u2212"
@@ -129,12 +135,19 @@ class Em:
 
 @dataclass(frozen=True)
 class Sub:
-    """A subscript in prose: the "cr" of N_cr."""
+    """A subscript in prose: the "cr" of N_cr (a :class:`T` when it holds digits, e.g. the "M1" of γ_M1)."""
 
-    text: str
+    text: Union[str, "T"]
 
 
-Inline = Union[str, Q, T, Em, Sub]
+@dataclass(frozen=True)
+class Sup:
+    """A superscript: the parts of an exponent, e.g. of 0.658^(Fy/Fe)."""
+
+    parts: tuple
+
+
+Inline = Union[str, Q, T, Em, Sub, Sup]
 
 
 @dataclass(frozen=True)
@@ -152,12 +165,14 @@ class Para:
 
 @dataclass(frozen=True)
 class Table:
-    """A table; ``numeric`` marks columns set right-aligned with tabular figures."""
+    """A table; ``numeric`` marks columns set right-aligned with tabular figures; ``strong`` lists the
+    indices of rows set in bold (the governing case)."""
 
     header: tuple
     rows: tuple
     caption: tuple = ()
     numeric: tuple = ()
+    strong: tuple = ()
 
 
 @dataclass(frozen=True)
@@ -180,6 +195,30 @@ class Note:
 
     parts: tuple
     kind: str = "caution"
+
+
+@dataclass(frozen=True)
+class CalcLine:
+    """One line of a written-out calculation: ``lhs`` = ``rhs`` (formula, numbers, result), then a remark.
+
+    ``key`` sets the line in bold (the verdict of a check)."""
+
+    lhs: tuple
+    rhs: tuple
+    remark: tuple = ()
+    key: bool = False
+
+
+@dataclass(frozen=True)
+class Calc:
+    """A written-out calculation under its own numbered heading, as on a calculation sheet.
+
+    ``highlight`` marks the governing check (a rule beside the block and a label)."""
+
+    title: tuple
+    lines: tuple
+    notes: tuple = ()
+    highlight: bool = False
 
 
 @dataclass(frozen=True)

@@ -4,7 +4,7 @@ from __future__ import annotations
 
 import html
 
-from .document import Bullets, Em, Figure, Heading, Note, Para, Part, Q, Sub, T, Table
+from .document import Bullets, Calc, Em, Figure, Heading, Note, Para, Part, Q, Sub, Sup, T, Table
 
 __all__ = ["render_html", "CSP"]
 
@@ -39,6 +39,7 @@ th, td { padding: 2.5pt 7pt; text-align: left; vertical-align: top; }
 th:first-child, td:first-child { padding-left: 0; }
 th:last-child, td:last-child { padding-right: 0; }
 td.n, th.n { text-align: right; font-variant-numeric: tabular-nums lining-nums; white-space: nowrap; }
+thead th.n { white-space: normal; }
 tbody tr + tr td { border-top: 0.3pt solid #bbb; }
 div.table { margin: 4pt 0 10pt; break-inside: avoid; }
 div.table table { margin: 0; }
@@ -60,6 +61,22 @@ li { margin: 2pt 0; }
 nav.contents { font-size: 9.5pt; margin: 8pt 0 0; columns: 2; column-gap: 12mm; }
 nav.contents ol { margin: 2pt 0; padding-left: 16pt; }
 .t.mono, code { font-family: "DejaVu Sans Mono", "Liberation Mono", monospace; font-size: 8.5pt; }
+tr.strong td { font-weight: 700; }
+sub, sup { font-size: 72%; line-height: 0; }
+div.calc { margin: 12pt 0 10pt; break-inside: avoid; page-break-inside: avoid; }
+div.calc h3 { margin: 0 0 3pt; }
+div.calc.gov { border-left: 2.4pt solid #111; padding: 2pt 0 3pt 8pt; }
+div.calc .tag { font: 600 7.5pt/1 "Liberation Sans", "Helvetica", "Arial", sans-serif; letter-spacing: 0.1em;
+                text-transform: uppercase; border: 0.8pt solid #111; padding: 1.5pt 3pt 1pt; margin-left: 6pt;
+                vertical-align: 1.5pt; }
+table.calc { border: none; margin: 0; font-size: 10pt; line-height: 1.45; }
+table.calc td { padding: 1pt 0; border: none; white-space: normal; font-variant-numeric: lining-nums; }
+table.calc tbody tr + tr td { border-top: none; }
+table.calc td.lhs { text-align: right; white-space: nowrap; padding-right: 0; min-width: 13mm; }
+table.calc td.eq { padding: 1pt 5pt; }
+table.calc tr.key td { font-weight: 700; }
+table.calc .rem { font-size: 8.5pt; color: #333; font-style: italic; font-weight: 400; }
+p.cnote { font-size: 8.5pt; color: #333; margin: 2pt 0 0; }
 footer.end { margin-top: 18pt; border-top: 0.8pt solid #111; padding-top: 4pt; font-size: 8.5pt; color: #333; }
 @page { margin: 18mm 15mm 17mm 15mm;
         @bottom-right { content: "page " counter(page) " of " counter(pages);
@@ -90,7 +107,9 @@ def inline(parts) -> str:
         elif isinstance(p, Em):
             out.append(f"<i>{html.escape(p.text)}</i>")
         elif isinstance(p, Sub):
-            out.append(f"<sub>{html.escape(p.text)}</sub>")
+            out.append(f"<sub>{inline((p.text,))}</sub>")
+        elif isinstance(p, Sup):
+            out.append(f"<sup>{inline(p.parts)}</sup>")
         else:
             out.append(html.escape(str(p)))
     return "".join(out)
@@ -128,11 +147,23 @@ def _block(b) -> str:
     if isinstance(b, Table):
         num = set(b.numeric)
         head = "".join(f'<th{" class=n" if i in num else ""}>{inline(h)}</th>' for i, h in enumerate(b.header))
-        body = "".join("<tr>" + "".join(f"<td{_cls(i in num, c)}>{inline(c)}</td>" for i, c in enumerate(row))
-                       + "</tr>" for row in b.rows)
+        strong = set(b.strong)
+        body = "".join(("<tr class=strong>" if r in strong else "<tr>")
+                       + "".join(f"<td{_cls(i in num, c)}>{inline(c)}</td>" for i, c in enumerate(row))
+                       + "</tr>" for r, row in enumerate(b.rows))
         note = f'<p class="tnote">{inline(b.caption)}</p>' if b.caption else ""
         return f'<div class="table"><table><thead><tr>{head}</tr></thead><tbody>{body}</tbody></table>{note}</div>'
-
+    if isinstance(b, Calc):
+        cls = "calc gov" if b.highlight else "calc"
+        tag = ' <span class="tag">governing</span>' if b.highlight else ""
+        lines = "".join(
+            f'<tr{" class=key" if ln.key else ""}><td class=lhs>{inline(ln.lhs)}</td><td class=eq>=</td>'
+            f'<td class=rhs>{inline(ln.rhs)}'
+            + (f' <span class="rem">{inline(ln.remark)}</span>' if ln.remark else "") + "</td></tr>"
+            for ln in b.lines)
+        notes = "".join(f'<p class="cnote">{inline(n)}</p>' for n in b.notes)
+        return (f'<div class="{cls}"><h3>{inline(b.title)}{tag}</h3><table class="calc"><tbody>{lines}'
+                f"</tbody></table>{notes}</div>")
     raise TypeError(f"unknown report block {type(b).__name__}")
 
 

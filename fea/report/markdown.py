@@ -2,7 +2,7 @@
 
 from __future__ import annotations
 
-from .document import Bullets, Em, Figure, Heading, Note, Para, Part, Q, Sub, T, Table
+from .document import Bullets, Calc, Em, Figure, Heading, Note, Para, Part, Q, Sub, Sup, T, Table
 
 __all__ = ["render_markdown"]
 
@@ -21,7 +21,9 @@ def inline(parts) -> str:
         elif isinstance(p, Em):
             out.append(f"*{_esc(p.text)}*" if p.text.strip() else p.text)
         elif isinstance(p, Sub):
-            out.append(f"<sub>{_esc(p.text)}</sub>")
+            out.append(f"<sub>{inline((p.text,))}</sub>")
+        elif isinstance(p, Sup):
+            out.append(f"<sup>{inline(p.parts)}</sup>")
         else:
             out.append(_esc(str(p)))
     return "".join(out).replace("\n", " ")
@@ -45,11 +47,25 @@ def _block(b, figure_files: dict[str, str], counter: list[int], numbers: list[in
         if b.name in figure_files:
             return f"![Figure {counter[0]}]({figure_files[b.name]})\n\n{cap}"
         return f"{cap} (drawn in the HTML report)"
+    if isinstance(b, Calc):
+        numbers[1] += 1
+        head = f"### {numbers[0]}.{numbers[1]} {inline(b.title)}" + (" (governing)" if b.highlight else "")
+        lines = []
+        for ln in b.lines:
+            text = f"{inline(ln.lhs)} = {inline(ln.rhs)}"
+            text = f"**{text}**" if ln.key else text
+            lines.append(text + (f" {inline(ln.remark)}" if ln.remark else ""))
+        out = head + "\n\n" + "  \n".join(lines)
+        for n in b.notes:
+            out += "\n\n" + inline(n)
+        return out
     if isinstance(b, Table):
         num = set(b.numeric)
+        strong = set(b.strong)
         head = "| " + " | ".join(inline(h) for h in b.header) + " |"
         rule = "| " + " | ".join("---:" if i in num else "---" for i in range(len(b.header))) + " |"
-        rows = ["| " + " | ".join(inline(c) or " " for c in row) + " |" for row in b.rows]
+        rows = ["| " + " | ".join((f"**{inline(c)}**" if r in strong and inline(c).strip() else inline(c)) or " "
+                                  for c in row) + " |" for r, row in enumerate(b.rows)]
         text = "\n".join([head, rule, *rows])
         if b.caption:
             text += f"\n\n{inline(b.caption)}"
