@@ -13,7 +13,7 @@ from typing import Sequence
 from .design.check import AxisBuckling, DesignResult, DesignSpec, MemberData, SegmentForces, design_check
 from .errors import CaseError
 from .io.case import Case
-from .model import Column
+from .model import STATION_TOL, Column
 from .results import BucklingResult
 
 __all__ = ["member_data", "segment_forces", "axis_buckling", "design_of_case", "NEEDS_FY"]
@@ -49,7 +49,7 @@ def segment_forces(column: Column) -> tuple[SegmentForces, ...]:
     piecewise linear in height).
     """
     H = column.height
-    tol = 1e-9 * H
+    tol = 10 * STATION_TOL * H  # clear of the model's own station tolerance, so a load at a station counts below it
     inner = [p.at for p in column.point_loads] + [x for d in column.distributed_loads for x in (d.bottom, d.top)]
     out = []
     for a, b in column.segment_bounds():

@@ -354,3 +354,18 @@ def test_cli_exit_status_pass_fail_and_bad_input(tmp_path):
     assert err.stdout == ""
     lines = err.stderr.strip().splitlines()
     assert len(lines) == 1 and "design.curve_minor: 'z' is not a EN 1993-1-1 buckling curve" in lines[0]
+
+
+def test_segment_forces_count_a_load_at_the_segment_top_below_it():
+    # Regression: a load exactly at a segment's top acts on that segment (axial load is carried down);
+    # uplift at the top of a column compressed by a larger load at the step gives the lower segment
+    # compression only, the upper segment tension only.
+    from fea import Column, PointLoad, Restraint, Segment, RIGID
+    from fea.design_case import segment_forces
+
+    col = Column(segments=(Segment(3.0, 210e9, 1e-5), Segment(2.0, 210e9, 1e-5)),
+                 restraints=(Restraint(0.0, RIGID, RIGID), Restraint(5.0, RIGID)),
+                 point_loads=(PointLoad(5.0, -60e3), PointLoad(3.0, 900e3)))
+    low, up = segment_forces(col)
+    assert low.compression == pytest.approx(840e3) and low.tension == 0.0
+    assert up.tension == pytest.approx(60e3) and up.compression == 0.0
