@@ -268,3 +268,18 @@ def test_plot_writes_figures_of_optional_analyses(tmp_path):
     out = run("check", str(CASES / "design_hall_column.toml"), "--plot", str(tmp_path / "dh.svg"))
     assert out.returncode == 0, out.stderr
     assert b"<svg" in (tmp_path / "dh-utilisation.svg").read_bytes()
+
+
+def test_eccentricity_alone_is_not_ignored(tmp_path):
+    # Regression: an eccentricity on a [[load]] without an [imperfection] or [lateral] table used to be
+    # dropped silently; it now runs the second-order analysis of the straight column.
+    text = GOOD.replace('axial = "100 kN"', 'axial = "100 kN"\neccentricity = "20 mm"')
+    text = text.replace('I_minor = "8.0e6 mm^4"', 'I_minor = "8.0e6 mm^4"\nA = "3000 mm^2"')
+    p = tmp_path / "ecc.toml"
+    p.write_text(text)
+    out = run("check", str(p), "--json")
+    assert out.returncode == 0, out.stderr
+    data = json.loads(out.stdout)
+    assert "imperfect" in data
+    planes = data["imperfect"]
+    assert {pl["axis"] for pl in planes} == {"major", "minor"}

@@ -430,6 +430,17 @@ def parse_case(data: bytes | str, source: str = "") -> Case:
     for name, parser in EXTRA_SECTIONS.items():
         if name in doc:
             extras[name] = parser(_table(doc[name], name), doc)
+    # An eccentricity or lateral force on a [[load]] is read by the imperfect-column analysis.  Without an
+    # [imperfection] or [lateral] table it still must not be ignored: it implies an empty [lateral] table
+    # (the second-order analysis of the straight column with those actions).
+    load_actions = [(i, k) for i, t in enumerate(_tables(doc, "load"))
+                    for k in t if k in {"eccentricity", "lateral"} | _LOAD_EXTRA]
+    if load_actions and "imperfection" not in extras and "lateral" not in extras:
+        if "lateral" not in EXTRA_SECTIONS:
+            i, k = load_actions[0]
+            raise CaseError(f"load[{i + 1}].{k}", "is read only by the imperfect-column analysis, "
+                                                 "which this installation does not have")
+        extras["lateral"] = EXTRA_SECTIONS["lateral"]({}, doc)
 
     return Case(title=title, planes=tuple(columns), segments=seg_info, E=E if E is not None else parsed[0]["E"],
                 fy=fy, n_modes=int(n_modes), tolerance=float(tol), display=display, source=source,
