@@ -85,7 +85,9 @@ def build_parser() -> argparse.ArgumentParser:
 
 def _cmd_check(args: argparse.Namespace) -> int:
     from .io.case import load_case
-    from .io.export import result_dict, to_json, write_text_atomic
+    import json
+
+    from .io.export import result_dict, write_text_atomic
     from .io.summary import summary_lines
     from .runner import run_case
 
@@ -116,7 +118,8 @@ def _cmd_check(args: argparse.Namespace) -> int:
                               stress_unit=(display.stress, display.stress_si), fy=case.fy)
     else:
         extra = {}
-    text = to_json(res) if args.json else None
+    data = result_dict(res)
+    text = json.dumps(data, indent=2, allow_nan=False) if args.json else None
     if args.json and args.json != "-":
         write_text_atomic(args.json, text + "\n")
     for f in args.plot:
@@ -132,7 +135,7 @@ def _cmd_check(args: argparse.Namespace) -> int:
         for line in summary_lines(res, display):
             print(line)
         logging.getLogger(__name__).debug("check took %.3f s", time.perf_counter() - t0)
-    status = result_dict(res).get("design", {}).get("passed", True) if "design" in res.extras else True
+    status = data.get("design", {}).get("passed", True)
     return EXIT_OK if status else EXIT_FAILED_CHECK
 
 

@@ -22,8 +22,6 @@ from __future__ import annotations
 
 import math
 from dataclasses import dataclass, replace
-from typing import Iterable
-
 from .errors import ModelError
 
 __all__ = [
@@ -406,14 +404,3 @@ class Column:
             leaning_loads=tuple(replace(lean, at=H - lean.at) for lean in self.leaning_loads),
             title=self.title,
         )
-
-
-def uniform_column(length: float, E: float, I: float, restraints: Iterable[Restraint] = (), P: float = 1.0,
-                   **segment_kw: float) -> Column:
-    """Convenience: a one-segment column with a unit (or given) axial load at the top."""
-    return Column(
-        segments=(Segment(length=length, E=E, I=I, **segment_kw),),
-        restraints=tuple(restraints),
-        point_loads=(PointLoad(at=length, P=P),),
-    )
-

@@ -75,7 +75,7 @@ class BucklingResult:
     modes : (n_modes, n_nodes) lateral displacement of each mode, scaled so
         that the largest magnitude is 1 and that value is positive [-]
     rotations : (n_modes, n_nodes) section rotation of each mode on the same
-        scale [rad per unit of the largest displacement... m^-1]
+        scale as ``modes`` [1/m: rad per metre of the largest displacement]
     segments : tuple of SegmentBuckling for the lowest mode, base upward
     energy_shares : (n_modes, n_segments) bending-energy share of each segment
     n_elements : number of elements of the final mesh

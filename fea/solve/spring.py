@@ -29,7 +29,7 @@ import numpy as np
 import scipy.linalg as sla
 
 from ..assemble import assemble
-from ..errors import ModelError
+from ..errors import ModelError, SolverError
 from ..mesh import build_mesh
 from ..model import Column
 from .eigen import DEFAULT_TOL, buckling
@@ -101,7 +101,7 @@ class SpringStudy:
                 res = buckling(col_end, n_modes=1, tol=tol)
             except ModelError:
                 res = buckling(column.with_restraint(restraint, **{kind: k_ref}), n_modes=1, tol=tol)
-            except Exception:  # no positive load factor at this end: use the other end's mesh
+            except SolverError:  # no positive load factor at this end: use the other end's mesh
                 continue
             levels.append(int(round(math.log2(res.n_elements / build_mesh(col_end, 0).n_el))))
             errs.append(res.discretisation_error)
