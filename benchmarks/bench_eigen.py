@@ -30,7 +30,7 @@ from fea import RIGID, Column, PointLoad, Restraint, Segment, buckling  # noqa: 
 from fea.assemble import assemble  # noqa: E402
 from fea.mesh import build_mesh  # noqa: E402
 from fea.solve.eigen import solve_assembled  # noqa: E402
-from fea.solve.spring import SpringStudy  # noqa: E402
+from fea.solve.one_spring import SpringStudy  # noqa: E402
 
 E = 210e9
 

@@ -20,7 +20,7 @@ import time
 import numpy as np
 
 from fea import RIGID, Column, PointLoad, Restraint, Segment
-from fea.imperfection import Imperfection, SegmentSection
+from fea.model.imperfection import Imperfection, SegmentSection
 from fea.sections import ISection
 from fea.solve.imperfect import nonlinear_path
 

@@ -56,7 +56,7 @@ def main() -> None:
 
     col = study.case.column("in-plane")
     # the mesh level the spring path converged on (largest at the two ends of the range)
-    from fea.study.springs import converged_level
+    from fea.study.spring_set import converged_level
 
     level = max(converged_level(col.with_restraint(0, rotation=v), res.tolerance) for v in (0.0, np.inf))
     sample = np.linspace(0, N_POINTS - 1, N_BASELINE).astype(int)

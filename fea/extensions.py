@@ -2,7 +2,7 @@
 
 Each module listed in :func:`load` adds entries to the registries it needs:
 ``fea.io.case.EXTRA_SECTIONS`` (case-file tables), ``fea.io.case.SECTION_HOOK``,
-``fea.runner.ANALYSES`` (analyses run after buckling), ``fea.io.export.JSON_SECTIONS``,
+``fea.pipeline.ANALYSES`` (analyses run after buckling), ``fea.io.export.JSON_SECTIONS``,
 ``fea.io.summary.SUMMARY_SECTIONS`` and ``fea.cli.COMMANDS`` (subcommands).
 """
 
@@ -12,8 +12,8 @@ _LOADED = False
 
 #: Modules that register optional analyses, in import order.
 MODULES: tuple[str, ...] = (
-    "fea.io.design_io",
-    "fea.io.imperfection",
+    "fea.io.design_input",
+    "fea.io.imperfect_input",
     "fea.report.command",
     "fea.study.commands",
 )

@@ -7,10 +7,14 @@ physics.
 from __future__ import annotations
 
 from dataclasses import dataclass, field
+from typing import TYPE_CHECKING
 
 import numpy as np
 
-__all__ = ["SegmentBuckling", "BucklingResult", "K_ENERGY_SHARE_MIN", "K_AXIAL_RATIO_MIN"]
+if TYPE_CHECKING:
+    from .model.case import Case
+
+__all__ = ["SegmentBuckling", "BucklingResult", "CaseResults", "K_ENERGY_SHARE_MIN", "K_AXIAL_RATIO_MIN"]
 
 #: A segment whose share of the mode's bending energy is below this takes too
 #: little part in the mode for its effective-length factor to mean anything.
@@ -116,3 +120,31 @@ class BucklingResult:
     @property
     def success(self) -> bool:
         return self.converged
+
+
+@dataclass(frozen=True)
+class CaseResults:
+    """Everything computed for one case.
+
+    Attributes
+    ----------
+    case : the case
+    buckling : tuple of BucklingResult, one per bending plane, in the case's plane order
+    governing_axis : the plane with the lowest load factor
+    extras : results of optional analyses (imperfect, design, ...) keyed by name
+    """
+
+    case: Case
+    buckling: tuple[BucklingResult, ...]
+    governing_axis: str
+    extras: dict = field(default_factory=dict)
+
+    def plane(self, axis: str) -> BucklingResult:
+        for r in self.buckling:
+            if r.axis == axis:
+                return r
+        raise KeyError(axis)
+
+    @property
+    def governing(self) -> BucklingResult:
+        return self.plane(self.governing_axis)

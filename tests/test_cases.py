@@ -16,7 +16,7 @@ from pathlib import Path
 import pytest
 
 from fea.io.case import load_case
-from fea.runner import run_case
+from fea.pipeline import run_case
 
 ROOT = Path(__file__).resolve().parents[1]
 CASE_FILES = sorted((ROOT / "cases").glob("*.toml"))

@@ -18,7 +18,7 @@ from fea.errors import CaseError, UnitError
 from fea.io.case import parse_case
 from fea.io.export import result_dict
 from fea.io.summary import summary_lines
-from fea.runner import run_case
+from fea.pipeline import run_case
 from fea.sections import Angle
 
 rel = pytest.approx
@@ -361,7 +361,7 @@ def test_segment_forces_count_a_load_at_the_segment_top_below_it():
     # uplift at the top of a column compressed by a larger load at the step gives the lower segment
     # compression only, the upper segment tension only.
     from fea import Column, PointLoad, Restraint, Segment, RIGID
-    from fea.design_case import segment_forces
+    from fea.design.member import segment_forces
 
     col = Column(segments=(Segment(3.0, 210e9, 1e-5), Segment(2.0, 210e9, 1e-5)),
                  restraints=(Restraint(0.0, RIGID, RIGID), Restraint(5.0, RIGID)),

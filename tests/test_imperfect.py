@@ -14,10 +14,10 @@ import numpy as np
 import pytest
 from scipy.special import ellipk
 
-import fea.io.imperfection as imp_io
+import fea.io.imperfect_input as imp_io
 from fea import RIGID, Column, PointLoad, Restraint, Segment
 from fea.errors import CaseError, ModelError, UnitError
-from fea.imperfection import Imperfection, LateralActions, LateralDistributedLoad, SegmentSection
+from fea.model.imperfection import Imperfection, LateralActions, LateralDistributedLoad, SegmentSection
 from fea.io.case import load_case, parse_case
 from fea.io.imperfect_output import imperfect_json, imperfect_summary
 from fea.sections import ISection, Rectangle

@@ -27,7 +27,7 @@ def test_import_fea_is_light():
 
 
 def test_kernels_do_not_import_units_or_plotting():
-    mods = loaded_after("import fea.solve.eigen, fea.solve.spring, fea.assemble, fea.mesh, fea.elements, fea.model")
+    mods = loaded_after("import fea.solve.eigen, fea.solve.one_spring, fea.assemble, fea.mesh, fea.elements, fea.model")
     assert "pint" not in mods and "matplotlib" not in mods
 
 
@@ -35,7 +35,7 @@ def test_command_without_plot_skips_matplotlib_and_optimizers():
     code = ("import fea.cli\n"
             "fea.cli.build_parser()\n"
             "from fea.io.case import load_case\n"
-            "from fea.runner import run_case\n"
+            "from fea.pipeline import run_case\n"
             "run_case(load_case('cases/shed_column.toml'))")
     mods = loaded_after(code)
     assert "matplotlib" not in mods

@@ -58,7 +58,7 @@ NUMBER = re.compile(r"^(-?\d+)(?:\.(\d+))?(?: × 10([⁻⁰¹²³⁴⁵⁶⁷⁸
 
 
 def _run(path: Path):
-    from fea.runner import run_case
+    from fea.pipeline import run_case
 
     case = load_case(path)
     res = run_case(case)
@@ -460,7 +460,7 @@ SYMBOLS = {
 @pytest.mark.parametrize("name", list(DESIGNS))
 def test_design_checks_are_written_out_with_every_number_traced(name):
     from fea.io.case import parse_case
-    from fea.runner import run_case
+    from fea.pipeline import run_case
 
     from .test_design_integration import stepped
 

@@ -13,7 +13,7 @@ import pytest
 
 from fea import RIGID, Column, PointLoad, Restraint, Segment
 from fea.errors import CaseError, ModelError
-from fea.imperfection import (AppliedMoment, Imperfection, LateralActions, LateralDistributedLoad,
+from fea.model.imperfection import (AppliedMoment, Imperfection, LateralActions, LateralDistributedLoad,
                               LateralPointLoad, SegmentSection)
 from fea.solve.second_order import second_order
 
@@ -188,7 +188,7 @@ def test_negative_bow_is_refused():
 
 
 def test_negative_bow_in_case_file():
-    import fea.io.imperfection  # noqa: F401  (registers [imperfection])
+    import fea.io.imperfect_input  # noqa: F401  (registers [imperfection])
     from fea.io.case import parse_case
 
     text = CASE_BASE + '\n[imperfection]\nbow = "-5 mm"\n'

@@ -15,7 +15,7 @@ from fea.cli import main
 from fea.errors import CaseError
 from fea.io.case import load_case, parse_case
 from fea.io.catalogue import parse_catalogue
-from fea.sizing import check_candidate, required_inertia, size, with_section
+from fea.design.sizing import check_candidate, required_inertia, size, with_section
 from fea.solve.eigen import buckling
 
 rel = pytest.approx
@@ -73,7 +73,7 @@ def test_required_inertia_meets_its_definition(case):
     scaled = replace(col, segments=(replace(col.segments[0], I=req[("minor", "design")].I_required[0]),))
     cand_case = replace(case, planes=(("minor", scaled),))
     res = [buckling(scaled, n_modes=1, tol=case.tolerance, axis="minor")]
-    from fea.design_case import design_of_case
+    from fea.design.member import design_of_case
 
     d = design_of_case(cand_case, res, spec)
     assert d.max_utilisation == rel(1.0, rel=5e-3)  # root found to 1e-3 in log(scale)

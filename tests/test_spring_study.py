@@ -9,7 +9,7 @@ import pytest
 from scipy.optimize import brentq
 
 from fea import RIGID, Column, ModelError, PointLoad, Restraint, Segment, buckling
-from fea.solve.spring import SpringStudy
+from fea.solve.one_spring import SpringStudy
 
 
 def demo_column() -> Column:

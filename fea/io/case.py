@@ -13,11 +13,12 @@ import difflib
 import hashlib
 import math
 import tomllib
-from dataclasses import dataclass, field
+from dataclasses import dataclass
 from pathlib import Path
 from typing import Any
 
 from ..errors import CaseError, ModelError
+from ..model.case import Case, SegmentInfo
 from ..model import FREE, RIGID, Column, DistributedLoad, Foundation, LeaningLoad, PointLoad, Restraint, Segment
 from ..units import DisplayUnits, parse
 
@@ -44,62 +45,6 @@ TOP_KEYS = {"title", "units", "material", "analysis", "segment", "restraint", "l
 #: Top-level tables added by later analyses (imperfection, design, study, ...):
 #: name -> parser(table, case_dict) -> parsed object stored in Case.extras.
 EXTRA_SECTIONS: dict[str, Any] = {}
-
-
-@dataclass(frozen=True)
-class SegmentInfo:
-    """What the case file says about a segment beyond the stiffness model (SI)."""
-
-    name: str
-    bottom: float
-    top: float
-    A: float | None
-    fy: float | None
-    I_major: float | None
-    I_minor: float | None
-    section: dict | None = None
-
-
-@dataclass(frozen=True)
-class Case:
-    """A parsed, validated case.
-
-    Attributes
-    ----------
-    title : the case title
-    planes : tuple of (axis, Column): ("major", ...), ("minor", ...), or a
-        single ("in-plane", ...) for a one-plane study
-    segments : per-segment information (names, areas, yield strengths, sections)
-    E, fy : material defaults [Pa] (fy may be None)
-    n_modes, tolerance : analysis options
-    display : display units
-    source : path of the case file ("" when parsed from text)
-    sha256 : hash of the case file's bytes
-    extras : parsed optional sections (imperfection, design, study, ...)
-    """
-
-    title: str
-    planes: tuple[tuple[str, Column], ...]
-    segments: tuple[SegmentInfo, ...]
-    E: float
-    fy: float | None
-    n_modes: int
-    tolerance: float
-    display: DisplayUnits
-    source: str = ""
-    sha256: str = ""
-    extras: dict = field(default_factory=dict)
-    material: dict = field(default_factory=dict)
-
-    def column(self, axis: str) -> Column:
-        for a, col in self.planes:
-            if a == axis:
-                return col
-        raise KeyError(axis)
-
-    @property
-    def height(self) -> float:
-        return self.planes[0][1].height
 
 
 # ---------------------------------------------------------------------------

@@ -82,7 +82,7 @@ def _mass(where: str, text: str) -> float:
 
 def parse_catalogue(text: str, source: str = "catalogue") -> tuple[Candidate, ...]:
     """Parse catalogue CSV text into candidates (see the module docstring for the format)."""
-    from .design_io import build_shape
+    from .design_input import build_shape
 
     lines = [(n + 1, ln) for n, ln in enumerate(text.splitlines()) if ln.strip() and not ln.lstrip().startswith("#")]
     if not lines:

@@ -12,7 +12,7 @@ from typing import Any
 from .. import __version__
 from ..cautions import CAUTION, LIMITATIONS
 from ..results import BucklingResult
-from ..runner import CaseResults
+from ..results import CaseResults
 
 __all__ = ["result_dict", "buckling_dict", "write_text_atomic", "to_json", "JSON_SECTIONS"]
 

@@ -1,6 +1,6 @@
 """The ``stanchion size`` subcommand: the lightest catalogue section that passes the case's design check.
 
-Registered in :data:`fea.cli.COMMANDS` by :mod:`fea.io.design_io`.  Exit status
+Registered in :data:`fea.cli.COMMANDS` by :mod:`fea.io.design_input`.  Exit status
 0 when a section passes, 1 when none does, 2 on bad input.
 """
 
@@ -13,7 +13,7 @@ from pathlib import Path
 from typing import Any
 
 from ..errors import CaseError
-from ..sizing import SizingResult
+from ..design.sizing import SizingResult
 from ..units import DisplayUnits
 
 __all__ = ["HELP", "add_arguments", "run", "sizing_json", "sizing_lines"]
@@ -61,7 +61,7 @@ def _num(x: float | None) -> float | None:
 
 def sizing_json(s: SizingResult, catalogue: str = "") -> dict[str, Any]:
     """The JSON result of a sizing run (SI; documented in docs/design.md)."""
-    from .design_io import DESIGN_CAUTION, design_json
+    from .design_input import DESIGN_CAUTION, design_json
 
     ch = s.chosen
     return {
@@ -89,7 +89,7 @@ def sizing_json(s: SizingResult, catalogue: str = "") -> dict[str, Any]:
 
 def sizing_lines(s: SizingResult, title: str, d: DisplayUnits, top: int = 5) -> list[str]:
     """Summary lines of a sizing run."""
-    from .design_io import DESIGN_CAUTION
+    from .design_input import DESIGN_CAUTION
     from .summary import fmt
 
     metric = d.length in ("m", "cm", "mm")
@@ -139,7 +139,7 @@ def sizing_lines(s: SizingResult, title: str, d: DisplayUnits, top: int = 5) -> 
 
 
 def run(args: argparse.Namespace) -> int:
-    from ..sizing import size
+    from ..design.sizing import size
     from .case import load_case
     from .catalogue import load_catalogue
     from .export import write_text_atomic
@@ -153,7 +153,7 @@ def run(args: argparse.Namespace) -> int:
         raise CaseError("--plot", f"{args.plot!r} has no known extension: expected .png, .svg or .pdf")
     cands = load_catalogue(args.catalogue)
     if args.shape:
-        from .design_io import SHAPE_ALIASES
+        from .design_input import SHAPE_ALIASES
 
         def norm(x: str) -> str:
             x = x.strip().lower()

@@ -5,7 +5,7 @@ from __future__ import annotations
 import math
 
 from ..cautions import CAUTION
-from ..runner import CaseResults
+from ..results import CaseResults
 from ..units import DisplayUnits
 
 __all__ = ["summary_lines", "SUMMARY_SECTIONS", "fmt"]

@@ -13,7 +13,7 @@ from matplotlib.axes import Axes
 from matplotlib.figure import Figure
 
 from ..design.check import DesignResult
-from ..sizing import SizingResult
+from ..design.sizing import SizingResult
 
 __all__ = ["plot_utilisation", "plot_candidates"]
 

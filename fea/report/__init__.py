@@ -1,6 +1,6 @@
 """Calculation reports: one self-contained HTML page, or Markdown, from the results of a run.
 
-The report consumes the :class:`~fea.runner.CaseResults` of a run and the JSON
+The report consumes the :class:`~fea.pipeline.CaseResults` of a run and the JSON
 result dict of the same run (:func:`fea.io.export.result_dict`); it never
 recomputes physics.  Every number on the page carries its source
 (``data-src``) and display unit (``data-u``), see :mod:`fea.report.document`.
@@ -23,7 +23,7 @@ from __future__ import annotations
 import datetime
 from typing import Any, Iterable
 
-from ..runner import CaseResults
+from ..results import CaseResults
 from .content import PART_FIGURES, Units, header_rows, report_parts
 from .document import Para, Part, T, Table, q
 

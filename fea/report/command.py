@@ -67,7 +67,7 @@ def _check_target(path: Path, suffix: str, option: str) -> None:
 def run(args: argparse.Namespace) -> int:
     from ..io.case import load_case
     from ..io.export import result_dict, write_text_atomic
-    from ..runner import run_case
+    from ..pipeline import run_case
     from . import build_markdown, build_report, report_figures
 
     case = load_case(args.case)

@@ -12,7 +12,7 @@ from dataclasses import dataclass
 from typing import Any, Callable
 
 from ..cautions import CAUTION, LIMITATIONS
-from ..runner import CaseResults
+from ..results import CaseResults
 from ..units import DisplayUnits
 from .document import Bullets, Em, Sub, Figure, Heading, Note, Para, Part, Q, T, Table, q, unit_label
 

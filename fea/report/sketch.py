@@ -24,7 +24,7 @@ from __future__ import annotations
 import html
 import math
 
-from ..io.case import Case
+from ..model.case import Case
 from .content import Units
 from .document import Em, Q, T, q, unit_label
 

@@ -1,7 +1,7 @@
 """Imperfect columns: the co-rotational fibre path of a Column, and the comparison figures.
 
 :func:`nonlinear_path` turns a :class:`~fea.model.Column` of one bending plane,
-its :class:`~fea.imperfection.Imperfection`, lateral actions and per-segment
+its :class:`~fea.model.imperfection.Imperfection`, lateral actions and per-segment
 sections into the planar model of :mod:`fea.solve.corotational` and traces its
 equilibrium path with :func:`fea.solve.pathfollow.trace_path`:
 
@@ -45,7 +45,7 @@ from dataclasses import dataclass, field
 import numpy as np
 
 from ..errors import ModelError
-from ..imperfection import ANALYSES, Imperfection, LateralActions, SegmentSection
+from ..model.imperfection import ANALYSES, Imperfection, LateralActions, SegmentSection
 from ..model import Column
 from .eigen import buckling
 from .fibre import make_elastic_section, make_fibre_section
@@ -320,7 +320,7 @@ def nonlinear_path(column: Column, imperfection: Imperfection | None, sections, 
     ----------
     column : the column of this plane
     imperfection : initial bow (None: straight; then a lateral action is needed)
-    sections : one :class:`~fea.imperfection.SegmentSection` per segment; all
+    sections : one :class:`~fea.model.imperfection.SegmentSection` per segment; all
         with fibres and fy (elastic-plastic) or none with fibres (elastic, EA =
         E A and EI of the column)
     actions : lateral loads and applied moments

@@ -44,7 +44,7 @@ from ..assemble import assemble
 from ..elements import GAUSS_W, GAUSS_XI, elastic_stiffness, foundation_stiffness, geometric_stiffness, \
     shape_functions
 from ..errors import ModelError
-from ..imperfection import Imperfection, LateralActions, SegmentSection, bow_pieces, offsets_interpolant, \
+from ..model.imperfection import Imperfection, LateralActions, SegmentSection, bow_pieces, offsets_interpolant, \
     piece_value
 from ..mesh import Mesh, build_mesh
 from ..model import STATION_TOL, Column, Restraint
@@ -438,7 +438,7 @@ def second_order(column: Column, imperfection: Imperfection | None = None, actio
     column : the column (stiffness, restraints, axial loads)
     imperfection : initial bow (None: straight)
     actions : lateral loads and applied moments (None: none)
-    sections : one :class:`~fea.imperfection.SegmentSection` per segment (A, W,
+    sections : one :class:`~fea.model.imperfection.SegmentSection` per segment (A, W,
         fy), or None for deflections and moments only
     load_factors : (n_lam,) load factors to report [-]; default ``n_load_factors``
         values from 0 up to the first yield (or 0.9 of the critical load factor),

@@ -6,7 +6,7 @@ Modules
     Case-file key paths (``restraint[1].rotation``) and a small TOML writer.
 :mod:`fea.study.target`
     A case with its document; which plane restraint a [[restraint]] table drives.
-:mod:`fea.study.springs`
+:mod:`fea.study.spring_set`
     :class:`SpringModel`: load factors with several springs varying, on one mesh.
 :mod:`fea.study.sweep`
     One- and two-parameter sweeps (fast spring path, general re-solve path in parallel).

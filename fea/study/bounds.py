@@ -29,7 +29,7 @@ import numpy as np
 from ..errors import ModelError
 from ..model import Column
 from ..solve.eigen import DEFAULT_TOL
-from .springs import SpringModel, converged_level, effective_length_factors
+from .spring_set import SpringModel, converged_level, effective_length_factors
 
 __all__ = ["PlaneBounds", "plane_bounds", "MAX_SPRINGS"]
 

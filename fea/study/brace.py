@@ -34,7 +34,7 @@ import numpy as np
 from ..errors import ModelError
 from ..model import Column
 from ..solve.eigen import DEFAULT_TOL
-from .springs import SpringModel, converged_level
+from .spring_set import SpringModel, converged_level
 
 __all__ = ["BraceResult", "brace_stiffness", "winter_coefficient", "AISC_PHI", "AISC_STIFFNESS_COEFF",
            "AISC_STRENGTH_RATIO", "DEFAULT_EPS", "BraceForce", "brace_force"]
@@ -282,7 +282,7 @@ def brace_force(column: Column, result: BraceResult, bow_ratio: float = 500.0, s
     twice the threshold (Winter's advice to provide about twice the ideal
     stiffness for an imperfect column, from memory).
     """
-    from ..imperfection import Imperfection
+    from ..model.imperfection import Imperfection
     from ..solve.second_order import second_order
 
     if stiffness is not None:

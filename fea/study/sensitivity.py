@@ -26,7 +26,7 @@ import numpy as np
 
 from ..model import Column
 from ..solve.eigen import DEFAULT_TOL
-from .springs import SpringModel, converged_level
+from .spring_set import SpringModel, converged_level
 
 __all__ = ["SpringSensitivity", "column_sensitivities", "REPEATED_GAP"]
 

@@ -3,7 +3,7 @@
 Two ways to a point:
 
 * **spring path** - every swept input is a restraint spring.  One parameter:
-  :class:`fea.solve.spring.SpringStudy` gives every value from one
+  :class:`fea.solve.one_spring.SpringStudy` gives every value from one
   eigen-decomposition per plane.  Two parameters: :class:`SpringModel` holds one
   assembled mesh per plane and each grid point costs a few banded Cholesky
   factorisations (inertia bisection); rows of the grid go to the process pool.
@@ -35,9 +35,9 @@ import numpy as np
 from ..errors import CaseError, FeaError, ModelError
 from ..io.case import parse_case
 from ..solve.eigen import buckling
-from ..solve.spring import SpringStudy
+from ..solve.one_spring import SpringStudy
 from .paths import KeyPath, dump_toml, with_values
-from .springs import SpringModel, converged_level, effective_length_factors
+from .spring_set import SpringModel, converged_level, effective_length_factors
 from .target import StudyCase
 
 __all__ = ["ParameterRange", "SweepResult", "make_range", "sweep", "reference_stiffness", "SCALES",

@@ -16,7 +16,8 @@ import tomllib
 from dataclasses import dataclass
 
 from ..errors import CaseError
-from ..io.case import Case, parse_case
+from ..io.case import parse_case
+from ..model.case import Case
 from .paths import KeyPath
 
 __all__ = ["StudyCase", "SpringTarget"]

@@ -13,9 +13,9 @@ import sys
 import time
 from pathlib import Path
 
-from . import __version__
-from .cautions import CAUTION
-from .errors import FeaError
+from .. import __version__
+from ..cautions import CAUTION
+from ..errors import FeaError
 
 EXIT_OK, EXIT_FAILED_CHECK, EXIT_BAD_INPUT, EXIT_INTERNAL = 0, 1, 2, 3
 
@@ -29,7 +29,7 @@ class _Parser(argparse.ArgumentParser):
 
 
 def _units(text: str):
-    from .units import DisplayUnits
+    from ..units import DisplayUnits
 
     parts = [p.strip() for p in text.split(",")]
     if len(parts) != 2:
@@ -41,7 +41,7 @@ def _units(text: str):
 
 
 def build_parser() -> argparse.ArgumentParser:
-    from .extensions import load as _load_extensions
+    from ..extensions import load as _load_extensions
 
     _load_extensions()
     p = _Parser(
@@ -84,12 +84,12 @@ def build_parser() -> argparse.ArgumentParser:
 
 
 def _cmd_check(args: argparse.Namespace) -> int:
-    from .io.case import load_case
+    from ..io.case import load_case
     import json
 
-    from .io.export import result_dict, write_text_atomic
-    from .io.summary import summary_lines
-    from .runner import run_case
+    from ..io.export import result_dict, write_text_atomic
+    from ..io.summary import summary_lines
+    from ..pipeline import run_case
 
     t0 = time.perf_counter()
     case = load_case(args.case)
@@ -104,14 +104,14 @@ def _cmd_check(args: argparse.Namespace) -> int:
     # everything is computed before anything is written
     figures = []
     if args.plot:
-        from .plot import plot_planes
+        from ..plot import plot_planes
 
         planes = [(r.axis, case.column(r.axis), r) for r in res.buckling]
         fig = plot_planes(planes, n_modes=min(3, max(len(r.load_factors) for r in res.buckling)),
                           length_unit=(display.length, display.length_si),
                           force_unit=(display.force, display.force_si), title=case.title)
         figures.append(fig)
-        from .plot.extras import extra_figures
+        from ..plot.extras import extra_figures
 
         extra = extra_figures(res.extras, length_unit=(display.length, display.length_si),
                               force_unit=(display.force, display.force_si),
@@ -123,7 +123,7 @@ def _cmd_check(args: argparse.Namespace) -> int:
     if args.json and args.json != "-":
         write_text_atomic(args.json, text + "\n")
     for f in args.plot:
-        from .plot import save_figure
+        from ..plot import save_figure
 
         save_figure(figures[0], f)
         p = Path(f)
@@ -140,8 +140,8 @@ def _cmd_check(args: argparse.Namespace) -> int:
 
 
 def _cmd_init(args: argparse.Namespace) -> int:
-    from .io.export import write_text_atomic
-    from .io.template import TEMPLATE
+    from ..io.export import write_text_atomic
+    from ..io.template import TEMPLATE
 
     p = Path(args.file)
     if p.exists() and not args.force:

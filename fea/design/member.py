@@ -1,7 +1,7 @@
 """Design check of a parsed case: gathers the segment data and the buckling figures (no I/O).
 
 The case declares its method in a ``[design]`` table (parsed by
-:mod:`fea.io.design_io` into a :class:`fea.design.check.DesignSpec`); this
+:mod:`fea.io.design_input` into a :class:`fea.design.check.DesignSpec`); this
 module turns the case and its buckling results into the inputs of
 :func:`fea.design.check.design_check`.
 """
@@ -10,11 +10,11 @@ from __future__ import annotations
 
 from typing import Sequence
 
-from .design.check import AxisBuckling, DesignResult, DesignSpec, MemberData, SegmentForces, design_check
-from .errors import CaseError
-from .io.case import Case
-from .model import STATION_TOL, Column
-from .results import BucklingResult
+from .check import AxisBuckling, DesignResult, DesignSpec, MemberData, SegmentForces, design_check
+from ..errors import CaseError
+from ..model.case import Case
+from ..model import STATION_TOL, Column
+from ..results import BucklingResult
 
 __all__ = ["member_data", "segment_forces", "axis_buckling", "design_of_case", "NEEDS_FY"]
 

@@ -22,7 +22,7 @@ from __future__ import annotations
 
 import math
 from dataclasses import dataclass, replace
-from .errors import ModelError
+from ..errors import ModelError
 
 __all__ = [
     "FREE",

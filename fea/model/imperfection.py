@@ -52,8 +52,8 @@ from dataclasses import dataclass
 
 import numpy as np
 
-from .errors import ModelError
-from .model import STATION_TOL, Column
+from ..errors import ModelError
+from .column import STATION_TOL, Column
 
 __all__ = [
     "ANALYSES",

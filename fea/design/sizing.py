@@ -14,13 +14,13 @@ from dataclasses import dataclass, replace
 from typing import Sequence
 
 
-from .design.check import DesignCheck, DesignResult, DesignSpec, design_check
-from .design_case import axis_buckling, member_data, segment_forces
-from .errors import CaseError, ModelError, SolverError
-from .io.case import Case
-from .io.catalogue import Candidate
-from .model import Column
-from .solve.eigen import buckling
+from .check import DesignCheck, DesignResult, DesignSpec, design_check
+from .member import axis_buckling, member_data, segment_forces
+from ..errors import CaseError, ModelError, SolverError
+from ..model.case import Case
+from ..io.catalogue import Candidate
+from ..model import Column
+from ..solve.eigen import buckling
 
 __all__ = ["CandidateResult", "RequiredInertia", "SizingResult", "with_section", "check_candidate",
            "required_inertia", "size"]

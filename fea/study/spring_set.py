@@ -5,7 +5,7 @@ and adds them to the diagonal of the stiffness for each evaluation, so a load
 factor costs one dense generalised eigen-solution of the lowest mode.  It is
 the common engine of the brace-stiffness search, the sensitivity check and
 the fixity bounds; a single spring over thousands of values goes through
-:class:`fea.solve.spring.SpringStudy` instead.
+:class:`fea.solve.one_spring.SpringStudy` instead.
 
 Also here: the effective-length factors that follow from a load factor alone
 (:func:`effective_length_factors`), without the mode.

@@ -4,39 +4,11 @@ from __future__ import annotations
 
 from dataclasses import dataclass, field
 
-from .io.case import Case
-from .results import BucklingResult
+from .model.case import Case
+from .results import BucklingResult, CaseResults
 from .solve.eigen import buckling
 
 __all__ = ["CaseResults", "run_case"]
-
-
-@dataclass(frozen=True)
-class CaseResults:
-    """Everything computed for one case.
-
-    Attributes
-    ----------
-    case : the case
-    buckling : tuple of BucklingResult, one per bending plane, in the case's plane order
-    governing_axis : the plane with the lowest load factor
-    extras : results of optional analyses (imperfect, design, ...) keyed by name
-    """
-
-    case: Case
-    buckling: tuple[BucklingResult, ...]
-    governing_axis: str
-    extras: dict = field(default_factory=dict)
-
-    def plane(self, axis: str) -> BucklingResult:
-        for r in self.buckling:
-            if r.axis == axis:
-                return r
-        raise KeyError(axis)
-
-    @property
-    def governing(self) -> BucklingResult:
-        return self.plane(self.governing_axis)
 
 
 #: Optional analyses run after buckling: name -> f(case, buckling results) -> result or None.

@@ -309,7 +309,7 @@ def design_summary(r: DesignResult, d: DisplayUnits) -> list[str]:
 
 def run_design(case, results):
     """Runner hook: the design check of a case that declares ``[design]``, else None."""
-    from ..design_case import design_of_case
+    from ..design.member import design_of_case
 
     return design_of_case(case, results)
 
@@ -318,7 +318,8 @@ def register() -> None:
     """Add sections, the [design] table, the design analysis, its JSON and summary to the registries."""
     from . import case as case_io
     from . import export, sizing_command, summary
-    from .. import cli, runner
+    from .. import cli
+    from .. import pipeline as runner
 
     case_io.SECTION_HOOK = section_properties
     case_io.EXTRA_SECTIONS["design"] = parse_design

@@ -27,7 +27,7 @@ Registers two optional top-level tables with :data:`fea.io.case.EXTRA_SECTIONS`:
 and reads from every ``[[load]]``: ``eccentricity`` (a length, in every plane
 analysed), ``eccentricity_major`` / ``eccentricity_minor`` (one plane each, they
 override ``eccentricity``) and ``lateral`` (a lateral force at the load's
-station, in every plane).  Signs: see :mod:`fea.imperfection`.
+station, in every plane).  Signs: see :mod:`fea.model.imperfection`.
 """
 
 from __future__ import annotations
@@ -38,7 +38,7 @@ from dataclasses import dataclass, field, replace
 from typing import TYPE_CHECKING, Any
 
 from ..errors import CaseError, ModelError
-from ..imperfection import (ANALYSES, BOW_SHAPES, AppliedMoment, Imperfection, LateralActions, LateralDistributedLoad,
+from ..model.imperfection import (ANALYSES, BOW_SHAPES, AppliedMoment, Imperfection, LateralActions, LateralDistributedLoad,
                             LateralPointLoad, SegmentSection)
 from ..units import parse
 from . import case as _case
@@ -317,7 +317,7 @@ def parse_lateral(table: dict, doc: dict) -> LateralSpec:
 
 def shape_from_table(table: dict, path: str):
     """A shape of :mod:`fea.sections` from a segment's ``section`` table (the format of the section hook)."""
-    from .design_io import build_shape
+    from .design_input import build_shape
 
     if "shape" not in table:
         raise CaseError(f"{path}.shape", "missing: give a shape such as 'i', 'rhs', 'chs', 'angle'")
@@ -439,7 +439,7 @@ def run_imperfect(case, buckling_results=None) -> dict[str, "ImperfectResult"]:
 
 
 def imperfect_analysis(case, buckling_results=None) -> dict[str, "ImperfectResult"] | None:
-    """Adapter for :data:`fea.runner.ANALYSES`: the results, or None when the case declares nothing."""
+    """Adapter for :data:`fea.pipeline.ANALYSES`: the results, or None when the case declares nothing."""
     return run_imperfect(case, buckling_results) or None
 
 
@@ -448,9 +448,9 @@ def register() -> None:
 
     Called on import; the module is listed in :data:`fea.extensions.MODULES` to take part in ``stanchion check``.
     """
-    from .. import runner
+    from .. import pipeline as runner
     from . import export, summary
-    from .design_io import register as _sections  # noqa: F401  (installs the section hook)
+    from .design_input import register as _sections  # noqa: F401  (installs the section hook)
     from .imperfect_output import imperfect_json, imperfect_summary  # numpy only
 
     _case.EXTRA_SECTIONS["imperfection"] = parse_imperfection
