@@ -38,8 +38,8 @@ def main(n_steps: int = 100, repeats: int = 3, min_elements: int = 20) -> None:
     best = math.inf
     for _ in range(repeats):
         t0 = time.perf_counter()
-        p = nonlinear_path(col, Imperfection("half-sine", ratio=1000), [sec], min_elements=min_elements, max_steps=n_steps,
-                           drop_fraction=None, max_step=0.01 * L, initial_step=0.05)
+        p = nonlinear_path(col, Imperfection("half-sine", ratio=1000), [sec], min_elements=min_elements,
+                           max_steps=n_steps, drop_fraction=None, max_step=0.01 * L, initial_step=0.05)
         best = min(best, time.perf_counter() - t0)
     print(f"column-level fibre path: {p.n_elements} elements x 3 Gauss points x {p.n_fibres} fibres "
           f"(section fibres built once in {t_sec:.3f} s)")

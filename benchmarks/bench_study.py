@@ -28,10 +28,10 @@ ROOT = Path(__file__).resolve().parents[1]
 sys.path.insert(0, str(ROOT))
 
 from fea.assemble import assemble  # noqa: E402
+from fea.cli.study_common import study_from_text  # noqa: E402
 from fea.mesh import build_mesh  # noqa: E402
 from fea.study.paths import parse_key  # noqa: E402
 from fea.study.sweep import make_range, sweep  # noqa: E402
-from fea.study.target import StudyCase  # noqa: E402
 
 N_POINTS = 10_000
 N_BASELINE = 300
@@ -46,7 +46,7 @@ def baseline_point(column, level: int) -> float:
 
 def main() -> None:
     text = (ROOT / "cases/study_three_segment.toml").read_text()
-    study = StudyCase.from_text(text)
+    study = study_from_text(text)
     key = parse_key("restraint[1].rotation")
     t0 = time.perf_counter()
     r = make_range(study, key, 0.0, np.inf, N_POINTS, "log")

@@ -14,17 +14,11 @@ The tool assists the engineer; it does not replace the governing design code
 or a licensed engineer's judgement.
 """
 
-from importlib.metadata import PackageNotFoundError, version
-
 from .errors import CaseError, FeaError, ModelError, SolverError, UnitError
 from .model import FREE, RIGID, Column, DistributedLoad, Foundation, LeaningLoad, PointLoad, Restraint, Segment
 from .results import BucklingResult, SegmentBuckling
 from .solve.eigen import buckling
-
-try:
-    __version__ = version("stanchion")
-except PackageNotFoundError:  # pragma: no cover - running from a plain checkout
-    __version__ = "0.0.0"
+from .version import __version__
 
 __all__ = (
     "__version__",

@@ -1,30 +1,148 @@
-"""Run the analyses a case asks for and collect their results (no I/O)."""
+"""The analyses of a case, in one visible list, and running them.
+
+``stanchion check`` and ``stanchion report`` run every entry of :data:`ANALYSES`
+in order.  Each entry names everything of one analysis:
+
+``tables``   the case-file tables it reads, each with its parser (table, document) -> spec;
+``run``      (case, results so far) -> its result, or None when the case does not ask for it;
+``to_json``  result -> its part of the JSON result (SI), under the analysis's name;
+``summary``  (result, display units) -> lines of the terminal summary;
+``figures``  (result, display units, case) -> named figures drawn beside the mode shapes by ``--plot``;
+``report``   its part of the calculation record (title, blocks, figures; :class:`fea.report.OptionalPart`).
+
+To add an analysis,
+write its parser, its engine and its outputs in their layers and add one
+:class:`Analysis` here; nothing registers itself on import.
+"""
 
 from __future__ import annotations
 
-from dataclasses import dataclass, field
+from dataclasses import dataclass
+from typing import Any, Callable, Mapping
 
+from .io.case import TableParser
+from .io.case import load_case as _load_case
+from .io.case import parse_case as _parse_case
+from .io.design_input import parse_design
+from .io.design_output import design_json, design_summary
+from .io.export import result_dict
+from .io.imperfect_input import parse_imperfection, parse_lateral
+from .io.imperfect_output import imperfect_json, imperfect_summary
+from .io.study_input import parse_study
+from .io.summary import summary_lines
 from .model.case import Case
+from .report.parts import DESIGN_PART, IMPERFECT_PART, OptionalPart
 from .results import BucklingResult, CaseResults
 from .solve.eigen import buckling
 
-__all__ = ["CaseResults", "run_case"]
+__all__ = ["Analysis", "ANALYSES", "CASE_TABLES", "REPORT_PARTS", "load_case", "parse_case", "run_case", "result_json",
+           "summary"]
 
 
-#: Optional analyses run after buckling: name -> f(case, buckling results) -> result or None.
-ANALYSES: dict = {}
+@dataclass(frozen=True)
+class Analysis:
+    """One analysis of a case: its case-file tables, its engine and its outputs."""
+
+    name: str
+    tables: Mapping[str, TableParser]
+    run: Callable[[Case, tuple[BucklingResult, ...]], Any]
+    to_json: Callable[[Any], Any]
+    summary: Callable[[Any, Any], list[str]]
+    figures: Callable[[Any, Any, Case], dict] | None = None
+    report: OptionalPart | None = None
+
+
+def _run_imperfect(case: Case, buckling_results: tuple[BucklingResult, ...]):
+    from .solve.imperfect_case import run_imperfect  # the solvers load only when a case declares an imperfection
+
+    return run_imperfect(case, buckling_results) or None
+
+
+def _run_design(case: Case, buckling_results: tuple[BucklingResult, ...]):
+    from .design.member import design_of_case
+
+    return design_of_case(case, buckling_results)
+
+
+def _imperfect_figures(result, display, case: Case) -> dict:
+    """Load-deflection path, moment and stress diagrams, and the comparison chart of every plane."""
+    from .plot.imperfect import plot_comparison, plot_diagrams, plot_path
+
+    length = (display.length, display.length_si)
+    mm = ("mm", 1e-3) if display.length_si >= 1e-3 else length
+    out = {}
+    for axis, r in result.items():
+        tag = axis or "plane"
+        out[f"path-{tag}"] = plot_path(r, length_unit=mm)
+        out[f"diagrams-{tag}"] = plot_diagrams(r, length_unit=length, force_unit=(display.force, display.force_si),
+                                               stress_unit=(display.stress, display.stress_si), fy=case.fy)
+        out[f"comparison-{tag}"] = plot_comparison(r)
+    return out
+
+
+def _design_figures(result, display, case: Case) -> dict:
+    """The utilisation chart of the design check."""
+    from .plot.design import plot_utilisation
+
+    return {"utilisation": plot_utilisation(result).figure}
+
+
+#: The analyses ``check`` and ``report`` run after the elastic buckling of every plane, in this order.
+ANALYSES: tuple[Analysis, ...] = (
+    Analysis("imperfect", {"imperfection": parse_imperfection, "lateral": parse_lateral}, _run_imperfect,
+             imperfect_json, imperfect_summary, _imperfect_figures, IMPERFECT_PART),
+    Analysis("design", {"design": parse_design}, _run_design, design_json, design_summary, _design_figures,
+             DESIGN_PART),
+)
+
+#: The report part of every analysis, in report order (passed to :func:`fea.report.build_report`).
+REPORT_PARTS: Mapping[str, OptionalPart] = {a.name: a.report for a in ANALYSES if a.report is not None}
+
+#: Every optional table a case file may hold: the analyses' and the restraint studies' ``[study]``.
+CASE_TABLES: Mapping[str, TableParser] = {
+    **{name: parser for a in ANALYSES for name, parser in a.tables.items()},
+    "study": parse_study,
+}
+
+
+def load_case(path) -> Case:
+    """Read and validate a case file with every table of :data:`CASE_TABLES`."""
+    return _load_case(path, tables=CASE_TABLES)
+
+
+def parse_case(data: bytes | str, source: str = "") -> Case:
+    """Parse case-file text with every table of :data:`CASE_TABLES`."""
+    return _parse_case(data, source=source, tables=CASE_TABLES)
 
 
 def run_case(case: Case, n_modes: int | None = None, skip: tuple[str, ...] = ()) -> CaseResults:
-    """Buckling of every plane of ``case``, then any optional analysis it declares."""
+    """Buckling of every plane of ``case``, then every analysis of :data:`ANALYSES` it declares."""
     modes = n_modes or case.n_modes
     results = tuple(buckling(col, n_modes=modes, tol=case.tolerance, axis=axis) for axis, col in case.planes)
     gov = min(results, key=lambda r: r.load_factor).axis
     extras = {}
-    for name, fn in ANALYSES.items():
-        if name in skip:
+    for analysis in ANALYSES:
+        if analysis.name in skip:
             continue
-        out = fn(case, results)
+        out = analysis.run(case, results)
         if out is not None:
-            extras[name] = out
+            extras[analysis.name] = out
     return CaseResults(case=case, buckling=results, governing_axis=gov, extras=extras)
+
+
+def analysis(name: str) -> Analysis:
+    """The entry of :data:`ANALYSES` called ``name``."""
+    for a in ANALYSES:
+        if a.name == name:
+            return a
+    raise KeyError(name)
+
+
+def result_json(res: CaseResults) -> dict:
+    """The JSON result of a run (SI): the buckling of every plane and each analysis's part."""
+    return result_dict(res, {a.name: a.to_json for a in ANALYSES})
+
+
+def summary(res: CaseResults, display=None) -> list[str]:
+    """The lines of the terminal summary of a run, in ``display`` units (default: the case's)."""
+    return summary_lines(res, display, {a.name: a.summary for a in ANALYSES})

@@ -107,6 +107,56 @@ class DisplayUnits:
     def stress_si(self) -> float:
         return 1e6 if self.stress == "MPa" else 6894757.293168361
 
+    @property
+    def section(self) -> str:
+        """Length unit of section properties (A, I, W): cm with metric lengths, else in."""
+        return "cm" if self.length in ("m", "cm", "mm") else "in"
+
+    @property
+    def area(self) -> str:
+        return f"{self.section}^2"
+
+    @property
+    def section_modulus(self) -> str:
+        return f"{self.section}^3"
+
+    @property
+    def inertia(self) -> str:
+        """Second moment of area."""
+        return f"{self.section}^4"
+
+    @property
+    def line_load(self) -> str:
+        """Force per length: distributed loads."""
+        return f"{self.force}/{self.length}"
+
+    @property
+    def lateral(self) -> str:
+        """Translational spring stiffness (force per length)."""
+        return f"{self.force}/{self.length}"
+
+    @property
+    def rotational(self) -> str:
+        """Rotational spring stiffness."""
+        return f"{self.force}*{self.length}/rad"
+
+    @property
+    def modulus(self) -> str:
+        """Foundation modulus (force per length per length of column)."""
+        return f"{self.force}/{self.length}^2"
+
+    @property
+    def moment(self) -> str:
+        return f"{self.force}*{self.length}"
+
+    def by_suffix(self, key: str) -> str:
+        """The display unit of an SI result key by its suffix (``"axial_force_N"`` -> the force unit);
+        ``""`` for a key without one."""
+        table = (("_N_per_m", self.line_load), ("_N_m", self.moment), ("_Nm", self.moment), ("_Pa", self.stress),
+                 ("_m4", self.inertia), ("_m3", self.section_modulus), ("_m2", self.area), ("_N", self.force),
+                 ("_m", self.length))
+        return next((unit for suffix, unit in table if key.endswith(suffix)), "")
+
     def L(self, x: float) -> float:
         return x / self.length_si
 

@@ -7,8 +7,20 @@ import math
 import numpy as np
 import pytest
 
-from fea import (FREE, RIGID, Column, DistributedLoad, Foundation, LeaningLoad, ModelError, PointLoad, Restraint,
-                 Segment, SolverError, buckling)
+from fea import (
+    FREE,
+    RIGID,
+    Column,
+    DistributedLoad,
+    Foundation,
+    LeaningLoad,
+    ModelError,
+    PointLoad,
+    Restraint,
+    Segment,
+    SolverError,
+    buckling,
+)
 
 from .conftest import E_STEEL, I_DEMO, L_DEMO, euler_load, one_segment
 

@@ -8,15 +8,12 @@ from __future__ import annotations
 
 import json
 import math
-import os
-import subprocess
-import sys
 from pathlib import Path
 
 import pytest
 
-from fea.io.case import load_case
-from fea.pipeline import run_case
+from fea.pipeline import load_case, run_case
+from tests.conftest import run_cli
 
 ROOT = Path(__file__).resolve().parents[1]
 CASE_FILES = sorted((ROOT / "cases").glob("*.toml"))
@@ -41,15 +38,15 @@ def test_case_through_api(path):
     for r in res.buckling:
         assert r.converged and r.discretisation_error <= case.tolerance
         assert all(s.critical_axial_force == pytest.approx(s.axial_force * r.load_factor, rel=1e-9)
-                   for s in r.segments if not any(getattr(p, "permanent", False) for p in case.column(r.axis).point_loads)
+                   for s in r.segments
+                   if not any(getattr(p, "permanent", False) for p in case.column(r.axis).point_loads)
                    and not case.column(r.axis).distributed_loads)
 
 
 @pytest.mark.parametrize("path", CASE_FILES, ids=[p.stem for p in CASE_FILES])
 def test_case_through_command(path):
-    env = dict(os.environ, MPLBACKEND="Agg")
-    out = subprocess.run([sys.executable, "-m", "fea", "check", str(path), "--json"], capture_output=True,
-                         text=True, timeout=300, env=env, cwd=ROOT)
+    # in this interpreter through fea.cli.main; tests/test_cli.py runs one case in a real process
+    out = run_cli("check", str(path), "--json", cwd=ROOT)
     assert out.returncode == expected_exit(path), out.stderr
     data = json.loads(out.stdout)
     assert data["units"] == "SI" and data["buckling"]

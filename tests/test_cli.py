@@ -1,15 +1,25 @@
-"""The `stanchion` command driven through subprocess: summaries, JSON contract, plots, bad input."""
+"""The `stanchion` command: summaries, JSON contract, plots, bad input.
+
+The command runs in this interpreter through ``fea.cli.main`` (``run_cli`` in conftest.py), which
+is several times faster than a new process per run; the ``test_real_process_*`` tests at the end
+start real processes (``python -m fea``, the installed ``stanchion`` script) for what only a
+process shows: the module entry point, the console script, the exit status the shell sees and the
+interpreter's own traceback.
+"""
 
 from __future__ import annotations
 
 import json
 import math
 import os
+import shutil
 import subprocess
 import sys
 from pathlib import Path
 
 import pytest
+
+from tests.conftest import Run, run_cli
 
 ROOT = Path(__file__).resolve().parents[1]
 CASES = ROOT / "cases"
@@ -39,10 +49,15 @@ axial = "100 kN"
 '''
 
 
-def run(*args: str, cwd: Path = ROOT) -> subprocess.CompletedProcess:
+def run(*args: str, cwd: Path = ROOT) -> Run:
+    """The command in this interpreter (see ``run_cli``)."""
+    return run_cli(*args, cwd=cwd)
+
+
+def run_process(*argv: str, cwd: Path = ROOT) -> subprocess.CompletedProcess:
+    """A real new process: ``argv`` is the whole command line."""
     env = dict(os.environ, MPLBACKEND="Agg")
-    return subprocess.run([sys.executable, "-m", "fea", *args], cwd=cwd, capture_output=True, text=True,
-                          timeout=300, env=env)
+    return subprocess.run(list(argv), cwd=cwd, capture_output=True, text=True, timeout=300, env=env)
 
 
 @pytest.fixture
@@ -165,14 +180,16 @@ BAD_CASES = {
     "wrong dimension": (_edit('I_major = "8.0e6 mm^4"', 'I_major = "8 kN"'),
                         "segment[1].I_major: '8 kN' is not a second moment of area"),
     "unknown unit": (_edit('E = "210 GPa"', 'E = "210 furlongs"'), "material.E: '210 furlongs' is not a quantity"),
-    "unknown key": (_edit('length = "4.0 m"', 'lenght = "4.0 m"'), "segment[1].lenght: unknown key; did you mean `length`"),
+    "unknown key": (_edit('length = "4.0 m"', 'lenght = "4.0 m"'),
+                    "segment[1].lenght: unknown key; did you mean `length`"),
     "unknown table": (_edit("[material]", "[materail]"), "materail: unknown key; did you mean `material`"),
     "negative length": (_edit('length = "4.0 m"', 'length = "-4.0 m"'), "segment[1].length: '-4.0 m' must be positive"),
     "zero modulus": (_edit('E = "210 GPa"', 'E = "0 GPa"'), "material.E: '0 GPa' must be positive"),
     "station outside": (_edit('at = "2.0 m"', 'at = "9 m"'), "restraint[3].at: height '9 m' is outside the column"),
     "no lateral restraint": (GOOD.replace('lateral = "rigid"', 'rotation = "rigid"'),
                              "no lateral restraint: the column can slide sideways"),
-    "rigid-body rotation": (_edit('[[restraint]]\nat = "top"\nlateral = "rigid"', '[[restraint]]\nat = "top"\nlateral = "free"\nrotation = "free"\naxis = "both"\n'),
+    "rigid-body rotation": (_edit('[[restraint]]\nat = "top"\nlateral = "rigid"',
+                                  '[[restraint]]\nat = "top"\nlateral = "free"\nrotation = "free"\naxis = "both"\n'),
                             None),
     "tension only": (_edit('axial = "100 kN"', 'axial = "-100 kN"'), "no compression anywhere"),
     "malformed toml": (_edit('title = "CLI test column (invented)"', 'title = "CLI test'), "TOML syntax error"),
@@ -180,15 +197,18 @@ BAD_CASES = {
     "missing segments": (GOOD.split("[[segment]]")[0] + "[[restraint]]\nat = \"base\"\nlateral = \"rigid\"\n",
                          "no [[segment]] given"),
     "I_minor above I_major": (_edit('I_minor = "8.0e6 mm^4"', 'I_minor = "9.0e6 mm^4"'), "is larger than I_major"),
-    "bad axis": (_edit('axis = "minor"', 'axis = "diagonal"'), "restraint[3].axis: expected 'major', 'minor' or 'both'"),
-    "bad far end": (GOOD + '[[restraint]]\nat = "top"\n[[restraint.beam]]\nI = "1e6 mm^4"\nspan = "5 m"\nfar_end = "welded"\n',
+    "bad axis": (_edit('axis = "minor"', 'axis = "diagonal"'),
+                 "restraint[3].axis: expected 'major', 'minor' or 'both'"),
+    "bad far end": (GOOD + '[[restraint]]\nat = "top"\n[[restraint.beam]]\nI = "1e6 mm^4"\nspan = "5 m"\n'
+                           'far_end = "welded"\n',
                     "far_end: expected one of pinned, fixed"),
     "load without station": (_edit('at = "top"\naxial = "100 kN"', 'axial = "100 kN"'), "load[1].at: missing"),
     "no loads": (GOOD.split("[[load]]")[0], "no [[load]] or [[distributed_load]] given"),
     "restrains nothing": (GOOD + '[[restraint]]\nat = "1 m"\n', "restrains nothing"),
     "mixed I styles": (GOOD.replace('length = "4.0 m"', 'length = "2.0 m"') +
                        '[[segment]]\nlength = "2 m"\nI = "1e6 mm^4"\n', "use one style throughout"),
-    "permanent above critical": (_edit('axial = "100 kN"', 'axial = "50 kN"\n[[load]]\nat = "top"\naxial = "5000 kN"\npermanent = true'),
+    "permanent above critical": (_edit('axial = "100 kN"',
+                                       'axial = "50 kN"\n[[load]]\nat = "top"\naxial = "5000 kN"\npermanent = true'),
                                  "permanent loads alone exceed"),
     "bad modes": (GOOD + "[analysis]\nmodes = 0\n", "analysis.modes: expected a whole number"),
     "missing E": (_edit('E = "210 GPa"\n', ""), "segment[1].E: missing"),
@@ -283,3 +303,43 @@ def test_eccentricity_alone_is_not_ignored(tmp_path):
     assert "imperfect" in data
     planes = data["imperfect"]
     assert {pl["axis"] for pl in planes} == {"major", "minor"}
+
+
+# -- real processes: what only a new interpreter shows -----------------------------------------
+
+def test_real_process_module_entry_point_checks_a_case():
+    out = run_process(sys.executable, "-m", "fea", "check", "cases/shed_column.toml", "--json")
+    assert out.returncode == 0, out.stderr
+    data = json.loads(out.stdout)
+    assert data["units"] == "SI" and data["buckling"]
+    assert data["governing_axis"] in [b["axis"] for b in data["buckling"]]
+
+
+def test_real_process_console_script(good_case):
+    # the script pip installed beside this interpreter, else the one on PATH
+    script = shutil.which("stanchion", path=str(Path(sys.executable).parent)) or shutil.which("stanchion")
+    assert script, "the `stanchion` console script is not installed (pip install -e .)"
+    out = run_process(script, "--version")
+    assert out.returncode == 0 and out.stdout.startswith("stanchion ")
+    out = run_process(script, "check", str(good_case))
+    assert out.returncode == 0, out.stderr
+    assert "Governing: major axis" in out.stdout
+
+
+def test_real_process_bad_input_exits_2_with_one_line(tmp_path):
+    p = tmp_path / "bad.toml"
+    p.write_text(BAD_CASES["bare number"][0])
+    out = run_process(sys.executable, "-m", "fea", "check", str(p))
+    assert out.returncode == 2, (out.stdout, out.stderr)
+    err = out.stderr.strip()
+    assert "\n" not in err and "Traceback" not in err
+    assert err.startswith(f"stanchion: error: {p}: ") and "segment[1].length: 4.0 has no unit" in err
+    assert out.stdout == ""
+    assert run_process(sys.executable, "-m", "fea", "frobnicate").returncode == 2  # argparse's usage error
+
+
+def test_real_process_debug_shows_the_interpreters_traceback(tmp_path):
+    p = tmp_path / "bad.toml"
+    p.write_text(BAD_CASES["bare number"][0])
+    out = run_process(sys.executable, "-m", "fea", "--debug", "check", str(p))
+    assert out.returncode != 0 and "Traceback" in out.stderr

@@ -8,18 +8,16 @@ from __future__ import annotations
 
 import json
 import math
-import subprocess
-import sys
 from pathlib import Path
 
 import pytest
 
 from fea.errors import CaseError, UnitError
-from fea.io.case import parse_case
-from fea.io.export import result_dict
-from fea.io.summary import summary_lines
-from fea.pipeline import run_case
+from fea.pipeline import parse_case, run_case
+from fea.pipeline import result_json as result_dict
+from fea.pipeline import summary as summary_lines
 from fea.sections import Angle
+from tests.conftest import Run, run_cli
 
 rel = pytest.approx
 CASES = Path(__file__).resolve().parent.parent / "cases"
@@ -307,9 +305,9 @@ def test_aisc_asd_is_nominal_over_omega():
     ('standard = "EN 1993-1-1"\ncurve = "b"\ngama_M1 = 1.1', r"design\.gama_M1: unknown key; did you mean `gamma_M1`"),
     ('standard = "AS 4100"\nalpha_b = 0.25', r"design\.alpha_b: 0.25 is not an AS 4100 member section constant"),
     ('standard = "working-stress"\nfactor_of_safety = 2.5', r"material\.sigma_allow: missing"),
-    ('standard = "working-stress"\nfactor_of_safety = 0.5\nsigma_allow = "5 MPa"', r"design\.factor_of_safety: 0.5 is out of range"),
+    ('standard = "working-stress"\nfactor_of_safety = 0.5\nsigma_allow = "5 MPa"', r"design\.factor_of_safety: 0.5 is out of range"),  # noqa: E501 - one row of a table
     ('standard = "AISC 360"\nmethod = "LSD"', r"design\.method: expected 'LRFD' or 'ASD'"),
-    ('standard = "BS 5950-1"\ncurve = "b"\n[[design.segment]]\nsegment = "middle"', r"design\.segment\[1\]\.segment: 'middle' names no segment"),
+    ('standard = "BS 5950-1"\ncurve = "b"\n[[design.segment]]\nsegment = "middle"', r"design\.segment\[1\]\.segment: 'middle' names no segment"),  # noqa: E501 - one row of a table
 ])
 def test_design_input_errors(design, message):
     with pytest.raises(CaseError, match=message):
@@ -335,8 +333,9 @@ def test_json_design_part_and_summary():
     assert "Design check: EN 1993-1-1" in text and "PASSES" in text
 
 
-def _cli(*args: str) -> subprocess.CompletedProcess:
-    return subprocess.run([sys.executable, "-m", "fea", *args], capture_output=True, text=True, timeout=120)
+def _cli(*args: str) -> Run:
+    # the command in this interpreter through fea.cli.main (tests/conftest.py), in the current folder
+    return run_cli(*args, cwd=Path.cwd())
 
 
 def test_cli_exit_status_pass_fail_and_bad_input(tmp_path):
@@ -360,7 +359,7 @@ def test_segment_forces_count_a_load_at_the_segment_top_below_it():
     # Regression: a load exactly at a segment's top acts on that segment (axial load is carried down);
     # uplift at the top of a column compressed by a larger load at the step gives the lower segment
     # compression only, the upper segment tension only.
-    from fea import Column, PointLoad, Restraint, Segment, RIGID
+    from fea import RIGID, Column, PointLoad, Restraint, Segment
     from fea.design.member import segment_forces
 
     col = Column(segments=(Segment(3.0, 210e9, 1e-5), Segment(2.0, 210e9, 1e-5)),

@@ -14,12 +14,12 @@ import numpy as np
 import pytest
 from scipy.special import ellipk
 
-import fea.io.imperfect_input as imp_io
+import fea.solve.imperfect_case as imp_case
 from fea import RIGID, Column, PointLoad, Restraint, Segment
 from fea.errors import CaseError, ModelError, UnitError
-from fea.model.imperfection import Imperfection, LateralActions, LateralDistributedLoad, SegmentSection
-from fea.io.case import load_case, parse_case
 from fea.io.imperfect_output import imperfect_json, imperfect_summary
+from fea.model.imperfection import Imperfection, SegmentSection
+from fea.pipeline import load_case, parse_case
 from fea.sections import ISection, Rectangle
 from fea.solve.imperfect import analyse_imperfect, nonlinear_path, perry_first_yield
 
@@ -196,7 +196,7 @@ def case_text(fy='fy = "355 MPa"', load_extra="", extra=""):
 def test_missing_fy_in_a_case_with_nonlinear_analysis():
     text = case_text(fy="", extra='[imperfection]\nbow = "L/1000"\nanalysis = "nonlinear"\n')
     with pytest.raises(CaseError, match=r"segment\[1\].fy: missing: the nonlinear \(yield\) analysis needs"):
-        imp_io.run_imperfect(parse_case(text))
+        imp_case.run_imperfect(parse_case(text))
 
 
 def test_case_keys_are_checked():
@@ -213,8 +213,8 @@ def test_eccentricity_and_lateral_keys_become_actions():
                      extra='[imperfection]\nbow = "L/500"\nanalysis = "second-order"\n'
                            '[lateral]\n[[lateral.distributed]]\nper_length = "1.5 kN/m"\naxis = "major"\n')
     case = parse_case(text)
-    major = imp_io.plane_inputs(case, "major")[3]
-    minor = imp_io.plane_inputs(case, "minor")[3]
+    major = imp_case.plane_inputs(case, "major")[3]
+    minor = imp_case.plane_inputs(case, "minor")[3]
     assert [m.moment for m in major.moments] == pytest.approx([300e3 * 0.020])
     assert [m.moment for m in minor.moments] == pytest.approx([300e3 * 0.005])
     assert len(major.distributed) == 1 and not minor.distributed
@@ -225,7 +225,7 @@ def test_eccentricity_and_lateral_keys_become_actions():
 @pytest.fixture(scope="module")
 def demo():
     case = load_case(CASES / "crooked_post.toml")
-    return case, imp_io.run_imperfect(case)
+    return case, imp_case.run_imperfect(case)
 
 
 def test_demo_case_runs_both_axes(demo):
@@ -265,7 +265,7 @@ def test_demo_case_outputs(demo, tmp_path):
 
 def test_lateral_only_case_runs_second_order_on_a_straight_column():
     text = case_text(extra='[lateral]\n[[lateral.distributed]]\nper_length = "1.5 kN/m"\naxis = "major"\n')
-    res = imp_io.run_imperfect(parse_case(text))
+    res = imp_case.run_imperfect(parse_case(text))
     r = res["major"]
     assert r.analysis == "second-order" and r.bow_amplitude == 0.0
     assert r.second_order.moment_amplification[r.second_order.at(1.0)] > 1.0

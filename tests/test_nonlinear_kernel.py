@@ -147,7 +147,8 @@ def test_ultimate_load_against_en1993_curve_b(lam_bar):
     chi = chi_en1993(lam_bar, ALPHA_CURVE_B)
     ratio = r.limit_load_factor / chi
     print(f"lambda_bar={lam_bar}: N_u/(A fy) = {r.limit_load_factor:.4f}, chi_b = {chi:.4f}, ratio = {ratio:.4f}")
-    assert abs(ratio - 1) < 0.10, f"lambda_bar={lam_bar}: N_u/(A fy)={r.limit_load_factor:.4f}, chi={chi:.4f}, ratio={ratio:.4f}"
+    assert abs(ratio - 1) < 0.10, (f"lambda_bar={lam_bar}: N_u/(A fy)={r.limit_load_factor:.4f}, chi={chi:.4f}, "
+                                   f"ratio={ratio:.4f}")
     assert r.limit_accuracy <= 1e-4
     assert r.first_yield_load_factor is not None and r.first_yield_load_factor < r.limit_load_factor
     lo, hi = r.first_yield_bracket

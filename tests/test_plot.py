@@ -9,9 +9,10 @@ import xml.etree.ElementTree as ET
 
 import pytest
 
-from fea import (FREE, RIGID, Column, DistributedLoad, Foundation, LeaningLoad, ModelError, PointLoad, Restraint,
-                 Segment, buckling)
-from fea.plot import format_load_factor, plot_modes, plot_planes, save_figure
+from fea import buckling
+from fea.errors import ModelError
+from fea.model import FREE, RIGID, Column, DistributedLoad, Foundation, LeaningLoad, PointLoad, Restraint, Segment
+from fea.plot import draw_column, format_load_factor, plot_modes, plot_planes, plot_sketch, save_figure
 
 from .conftest import E_STEEL, I_DEMO, one_segment
 
@@ -248,3 +249,66 @@ def test_many_segments_and_stations_keep_tick_labels_apart():
         for i, a in enumerate(boxes):
             for b in boxes[i + 1:]:
                 assert not a.overlaps(b)
+
+
+# -- one drawing of the column (issue 10) ---------------------------------------------------------
+
+LIGHT_MODULES = ("modes", "column", "symbols", "key", "labels", "layout", "text", "style", "output", "imperfect")
+
+
+def test_plot_modules_import_without_matplotlib():
+    """A caller may hold a figure function without loading matplotlib (the pipeline's list of analyses does)."""
+    code = ("import sys\n" + "".join(f"import fea.plot.{m}\n" for m in LIGHT_MODULES)
+            + "from fea.plot.modes import plot_modes, plot_planes, plot_sketch\n"
+            + "from fea.plot import draw_column, save_figure\n"
+            + "assert 'matplotlib' not in sys.modules, 'matplotlib imported'")
+    run = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True,
+                         env=dict(os.environ, MPLBACKEND="Agg"))
+    assert run.returncode == 0, run.stderr
+
+
+def test_sketch_is_the_model_panel_of_the_mode_figure(stepped):
+    col, res = stepped
+    sketch = plot_sketch([("major", col), ("minor", pole())])
+    labels = [ax.get_label() for ax in sketch.axes]
+    assert labels.count("model") == 2 and labels.count("key") == 1 and not mode_axes(sketch)
+    assert [t.get_text() for t in sketch.texts] == ["major axis", "minor axis"]
+    # the same labels, in the same number format, as the model panel beside the modes
+    model = next(ax for ax in plot_modes(col, res).axes if ax.get_label() == "model")
+    drawn = next(ax for ax in sketch.axes if ax.get_label() == "model")
+    assert [t.get_text() for t in drawn.texts] == [t.get_text() for t in model.texts]
+    assert [t.get_text() for t in drawn.get_yticklabels()] == [t.get_text() for t in model.get_yticklabels()]
+    with pytest.raises(ModelError, match="no bending planes"):
+        plot_sketch([])
+    with pytest.raises(ModelError, match="expected \\(axis_label, column\\)"):
+        plot_sketch([("major", col, res)])
+
+
+def test_draw_column_on_given_axes(stepped):
+    from matplotlib.figure import Figure
+
+    col, _ = stepped
+    ax = Figure(figsize=(3, 5)).add_axes((0.2, 0.1, 0.75, 0.8))
+    assert draw_column(ax, col, force_unit=("kN", 1e3)) is ax
+    assert ax.get_label() == "model" and "300 kN" in "\n".join(t.get_text() for t in ax.texts)
+
+
+def test_report_sketch_is_drawn_by_the_plot_package():
+    from fea.io.case import load_case
+    from fea.report.sketch import column_sketch
+
+    case = load_case(os.path.join(os.path.dirname(__file__), "..", "cases", "crane_column.toml"))
+    svg = column_sketch(case, case.display)
+    root = ET.fromstring(svg)
+    assert root.tag.endswith("svg") and root.get("viewBox")
+    assert 'id="sketch-' in svg and "<text" not in svg   # a matplotlib figure, its text drawn as outlines
+
+
+def test_number_format_of_the_drawing():
+    from fea.plot.text import format_number
+
+    assert format_number(310e3 / 1e3) == "310"
+    assert format_number(7.8) == "7.8"
+    assert format_number(-0.5) == "−0.5"
+    assert format_number(2.0e6) == "2·10⁶"
+    assert format_number(0.26, 2) == "0.26"

@@ -17,8 +17,9 @@ from pathlib import Path
 import pytest
 
 from fea.cli import main
-from fea.io.case import load_case
-from fea.io.export import result_dict
+from fea.pipeline import REPORT_PARTS as PARTS
+from fea.pipeline import load_case
+from fea.pipeline import result_json as result_dict
 from fea.report import build_markdown, build_report
 from fea.units import to_display
 
@@ -70,7 +71,7 @@ class _Runs(dict):
 
     def __missing__(self, name: str):
         case, res, data = _run(next(p for p in CASES if p.stem == name))
-        self[name] = value = (case, res, data, build_report(res, data, date=DATE))
+        self[name] = value = (case, res, data, build_report(res, data, parts=PARTS, date=DATE))
         return value
 
 
@@ -273,7 +274,7 @@ def test_design_part_shows_formula_clause_and_utilisation(runs):
 def test_warnings_are_shown_verbatim(runs):
     case, res, data, _ = runs["shed_column"]
     warns = ["UserWarning: a demo warning raised at 2.5 m (invented for this test)"]
-    html = build_report(res, data, {}, warnings=warns, date=DATE)
+    html = build_report(res, data, {}, warnings=warns, parts=PARTS, date=DATE)
     check_numbers(html, case, data, warns)
     assert "a demo warning raised" in html
 
@@ -282,12 +283,36 @@ def test_report_refuses_the_json_of_another_case(runs):
     _, res, _, _ = runs["shed_column"]
     _, _, other, _ = runs["crane_column"]
     with pytest.raises(ValueError, match="case_sha256"):
-        build_report(res, other, {}, date=DATE)
+        build_report(res, other, {}, parts=PARTS, date=DATE)
+
+
+def test_report_reads_the_result_objects_not_the_json(runs):
+    import copy
+
+    case, res, data, _ = runs["crooked_post"]
+    html = build_report(res, figures={}, parts=PARTS, date=DATE)
+    check_numbers(html, case, data)  # every number is still the JSON's, at the path the report names
+    doctored = copy.deepcopy(data)
+    doctored["governing_load_factor"] = 99.0
+    doctored["buckling"][0]["segments"][0]["effective_length_factor"] = 7.0
+    doctored["imperfect"][0]["limit_load_factor"] = 42.0
+    assert build_report(res, doctored, {}, parts=PARTS, date=DATE) == html
+    assert (build_markdown(res, doctored, {}, parts=PARTS, date=DATE)
+            == build_markdown(res, figures={}, parts=PARTS, date=DATE))
+
+
+def test_report_refuses_an_analysis_it_has_no_part_for(runs):
+    import dataclasses
+
+    _, res, _, _ = runs["shed_column"]
+    with pytest.raises(ValueError, match="no part for the analysis 'unheard_of'"):
+        build_report(dataclasses.replace(res, extras={**res.extras, "unheard_of": object()}), figures={}, parts=PARTS,
+                     date=DATE)
 
 
 def test_markdown_has_the_same_numbers_in_the_same_order(runs):
     case, res, data, html = runs["crane_column"]
-    md = html_module.unescape(re.sub(r"\\([\\|*_`])", r"\1", build_markdown(res, data, {}, date=DATE)))
+    md = html_module.unescape(re.sub(r"\\([\\|*_`])", r"\1", build_markdown(res, data, {}, parts=PARTS, date=DATE)))
     page = parse_page(html)
     pos = 0
     for rec in page.sourced:
@@ -459,15 +484,14 @@ SYMBOLS = {
 
 @pytest.mark.parametrize("name", list(DESIGNS))
 def test_design_checks_are_written_out_with_every_number_traced(name):
-    from fea.io.case import parse_case
-    from fea.pipeline import run_case
+    from fea.pipeline import parse_case, run_case
 
     from .test_design_integration import stepped
 
     case = parse_case(stepped("[design]\n" + DESIGNS[name] + NET_SECTION, top="-60 kN", step="900 kN"))
     res = run_case(case)
     data = result_dict(res)
-    html = build_report(res, data, {}, date=DATE)
+    html = build_report(res, data, {}, parts=PARTS, date=DATE)
     check_numbers(html, case, data)  # every substituted number is the JSON's (or a named constant)
     checks = data["design"]["checks"]
     assert {c["kind"] for c in checks} == {"compression", "tension"}
@@ -485,7 +509,7 @@ def test_design_checks_are_written_out_with_every_number_traced(name):
             assert f"json:design/checks/{n}/N_cr_N" in srcs
             assert f"json:design/checks/{n}/details/A_m2" in srcs
     assert "Numbers substituted" not in html and "Slenderness name" not in html
-    md = build_markdown(res, data, {}, date=DATE)
+    md = build_markdown(res, data, {}, parts=PARTS, date=DATE)
     assert md.count("→  passes") + md.count("→  FAILS") == len(checks)
 
 

@@ -13,8 +13,14 @@ import pytest
 
 from fea import RIGID, Column, PointLoad, Restraint, Segment
 from fea.errors import CaseError, ModelError
-from fea.model.imperfection import (AppliedMoment, Imperfection, LateralActions, LateralDistributedLoad,
-                              LateralPointLoad, SegmentSection)
+from fea.model.imperfection import (
+    AppliedMoment,
+    Imperfection,
+    LateralActions,
+    LateralDistributedLoad,
+    LateralPointLoad,
+    SegmentSection,
+)
 from fea.solve.second_order import second_order
 
 E, I, A, C, FY, L = 210e9, 8e-6, 3e-3, 0.1, 355e6, 4.0
@@ -113,8 +119,8 @@ def test_secant_formula_equal_end_eccentricities():
     act = LateralActions(moments=(AppliedMoment(L, P * e), AppliedMoment(0.0, -P * e)))
     r = second_order(pinned(P=P), None, act, sections=sec(), load_factors=[0.25, 0.5, 1.0])
     lam = r.load_factors
-    # secant formula (Timoshenko & Gere, Theory of Elastic Stability, ch. 1, eccentric load (section number from memory); any strength-of-materials
-    # text): max stress = (P/A) (1 + (e c / r^2) sec((L/2) sqrt(P / EI)))
+    # secant formula (Timoshenko & Gere, Theory of Elastic Stability, ch. 1, eccentric load (section number from
+    # memory); any strength-of-materials text): max stress = (P/A) (1 + (e c / r^2) sec((L/2) sqrt(P / EI)))
     Pl = lam * P
     ref = Pl / A * (1 + e * C * A / I / np.cos(L / 2 * np.sqrt(Pl / (E * I))))
     assert np.max(np.abs(r.stress.max(axis=1) / ref - 1)) < 1e-5
@@ -188,8 +194,7 @@ def test_negative_bow_is_refused():
 
 
 def test_negative_bow_in_case_file():
-    import fea.io.imperfect_input  # noqa: F401  (registers [imperfection])
-    from fea.io.case import parse_case
+    from fea.pipeline import parse_case
 
     text = CASE_BASE + '\n[imperfection]\nbow = "-5 mm"\n'
     with pytest.raises(CaseError, match=r"imperfection.bow: '-5 mm' is negative"):

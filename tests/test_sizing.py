@@ -12,10 +12,10 @@ from pathlib import Path
 import pytest
 
 from fea.cli import main
-from fea.errors import CaseError
-from fea.io.case import load_case, parse_case
-from fea.io.catalogue import parse_catalogue
 from fea.design.sizing import check_candidate, required_inertia, size, with_section
+from fea.errors import CaseError
+from fea.io.catalogue import parse_catalogue
+from fea.pipeline import load_case, parse_case
 from fea.solve.eigen import buckling
 
 rel = pytest.approx

@@ -7,8 +7,6 @@ from __future__ import annotations
 
 import json
 import math
-import subprocess
-import sys
 import tomllib
 from pathlib import Path
 
@@ -18,13 +16,14 @@ from hypothesis import given, settings
 from hypothesis import strategies as st
 
 from fea import RIGID, Column, PointLoad, Restraint, Segment, buckling
+from fea.cli.study_common import rebuild_case, study_from_text
 from fea.errors import CaseError
 from fea.study.bounds import plane_bounds
 from fea.study.brace import brace_force, brace_stiffness, winter_coefficient
-from fea.study.paths import dump_toml, parse_key
+from fea.study.paths import parse_key
 from fea.study.sensitivity import column_sensitivities
 from fea.study.sweep import make_range, sweep
-from fea.study.target import StudyCase
+from tests.conftest import Run, run_cli
 
 ROOT = Path(__file__).resolve().parents[1]
 E, I, L = 210e9, 8.0e-6, 6.0  # invented test column [Pa, m^4, m]
@@ -201,7 +200,7 @@ axial = "100 kN"
 def test_base_rotation_sweep_moves_K_from_1_to_0_6992():
     # Pinned-pinned K = 1; fixed-pinned: tan(kL) = kL, kL = 4.4934, K = pi / 4.4934 = 0.6992
     # (Timoshenko & Gere, Theory of Elastic Stability, 2nd ed., 1961, sec. 2.5).
-    study = StudyCase.from_text(FIXED_PINNED)
+    study = study_from_text(FIXED_PINNED)
     r = make_range(study, parse_key("restraint[1].rotation"), 0.0, math.inf, 61, "log")
     res = sweep(study, [r], segments=[0])
     K = res.K["in-plane"][:, 0]
@@ -216,7 +215,7 @@ def test_base_rotation_sweep_moves_K_from_1_to_0_6992():
 
 
 def test_parallel_and_serial_sweeps_are_identical():
-    study = StudyCase.from_text((ROOT / "cases/study_three_segment.toml").read_text())
+    study = study_from_text((ROOT / "cases/study_three_segment.toml").read_text())
     r = make_range(study, parse_key("segment[2].I"), 8e-6, 16e-6, 6, "linear")
     a = sweep(study, [r], jobs=1)
     b = sweep(study, [r], jobs=2)
@@ -232,16 +231,20 @@ def test_parallel_and_serial_sweeps_are_identical():
 
 
 def test_spring_path_agrees_with_the_re_solve_path():
-    study = StudyCase.from_text((ROOT / "cases/study_three_segment.toml").read_text())
+    study = study_from_text((ROOT / "cases/study_three_segment.toml").read_text())
     r = make_range(study, parse_key("restraint[1].rotation"), 1e4, 1e9, 5, "log")
     a = sweep(study, [r], method="spring")
     b = sweep(study, [r], method="re-solve")
     np.testing.assert_allclose(a.governing, b.governing, rtol=3e-6)
 
 
-def test_key_paths_and_toml_round_trip():
-    doc = tomllib.loads((ROOT / "cases/study_fixity_chart.toml").read_text())
-    assert tomllib.loads(dump_toml(doc)) == doc
+def test_key_paths_and_document_round_trip():
+    # studies rebuild changed cases from the parsed document (plain data, no TOML text): unchanged, it gives
+    # back the same case
+    text = (ROOT / "cases/study_fixity_chart.toml").read_text()
+    case = study_from_text(text).case
+    assert case.document == tomllib.loads(text)
+    assert rebuild_case(dict(case.document)).planes == case.planes
     k = parse_key("segment[1].I_minor")
     assert (k.dimension, k.si_unit, k.is_spring) == ("second moment of area", "m^4", False)
     assert parse_key("restraint[2].rotation").is_spring
@@ -254,9 +257,9 @@ def test_key_paths_and_toml_round_trip():
 # command line
 
 
-def _run(*args: str) -> subprocess.CompletedProcess:
-    return subprocess.run([sys.executable, "-m", "fea", *args], capture_output=True, text=True, cwd=ROOT,
-                          timeout=120)
+def _run(*args: str) -> Run:
+    # the command in this interpreter through fea.cli.main (tests/conftest.py), from the repository root
+    return run_cli(*args, cwd=ROOT)
 
 
 def test_cli_sweep_writes_json_and_csv(tmp_path):

@@ -1,51 +1,8 @@
-"""Design resistance of members by published column curves (see :mod:`fea.design.curves`)."""
+"""Design resistance of members by published column curves.
 
-from fea.design.curves import (
-    AS4100_ALPHA_B,
-    BS5950_ROBERTSON,
-    EN1993_IMPERFECTION,
-    AISC360Compression,
-    AS4100Compression,
-    BS5950Compression,
-    EN1993Buckling,
-    EN1993Chi,
-    EN1993Tension,
-    PerryRobertson,
-    RankineGordon,
-    WorkingStress,
-    aisc360_e3,
-    as4100_compression,
-    bs5950_compression,
-    en1993_buckling,
-    en1993_chi,
-    en1993_tension,
-    equivalent_slenderness,
-    perry_robertson,
-    rankine_gordon,
-    working_stress,
-)
+Each standard is one record in :mod:`fea.design.standards`; the curve functions
+are gathered in :mod:`fea.design.curves` and exported here.
+"""
 
-__all__ = [
-    "AS4100_ALPHA_B",
-    "BS5950_ROBERTSON",
-    "EN1993_IMPERFECTION",
-    "AISC360Compression",
-    "AS4100Compression",
-    "BS5950Compression",
-    "EN1993Buckling",
-    "EN1993Chi",
-    "EN1993Tension",
-    "PerryRobertson",
-    "RankineGordon",
-    "WorkingStress",
-    "aisc360_e3",
-    "as4100_compression",
-    "bs5950_compression",
-    "en1993_buckling",
-    "en1993_chi",
-    "en1993_tension",
-    "equivalent_slenderness",
-    "perry_robertson",
-    "rankine_gordon",
-    "working_stress",
-]
+from fea.design.curves import *  # noqa: F403 - the curve functions are this package's public names
+from fea.design.curves import __all__ as __all__

@@ -10,16 +10,17 @@ from __future__ import annotations
 
 from typing import Sequence
 
-from .check import AxisBuckling, DesignResult, DesignSpec, MemberData, SegmentForces, design_check
 from ..errors import CaseError
-from ..model.case import Case
 from ..model import STATION_TOL, Column
+from ..model.case import Case
 from ..results import BucklingResult
+from .check import AxisBuckling, DesignResult, DesignSpec, MemberData, SegmentForces, design_check
+from .standards import STANDARDS
 
 __all__ = ["member_data", "segment_forces", "axis_buckling", "design_of_case", "NEEDS_FY"]
 
 #: Standards whose resistance is built on the yield strength fy.
-NEEDS_FY = ("EN 1993-1-1", "AISC 360", "AS 4100", "BS 5950-1", "Perry-Robertson")
+NEEDS_FY = tuple(name for name, record in STANDARDS.items() if record.needs_fy)
 
 
 def member_data(case: Case, spec: DesignSpec, areas: Sequence[float | None] | None = None) -> tuple[MemberData, ...]:

@@ -13,17 +13,38 @@ import math
 from dataclasses import dataclass, replace
 from typing import Sequence
 
-
+from ..errors import CaseError, ModelError, SolverError
+from ..model import Column
+from ..model.case import Case
+from ..solve.eigen import buckling
 from .check import DesignCheck, DesignResult, DesignSpec, design_check
 from .member import axis_buckling, member_data, segment_forces
-from ..errors import CaseError, ModelError, SolverError
-from ..model.case import Case
-from ..io.catalogue import Candidate
-from ..model import Column
-from ..solve.eigen import buckling
 
-__all__ = ["CandidateResult", "RequiredInertia", "SizingResult", "with_section", "check_candidate",
+__all__ = ["Candidate", "CandidateResult", "RequiredInertia", "SizingResult", "with_section", "check_candidate",
            "required_inertia", "size"]
+
+
+@dataclass(frozen=True)
+class Candidate:
+    """One catalogue section (SI), as :mod:`fea.io.catalogue` reads it from a CSV file.
+
+    Attributes
+    ----------
+    name : catalogue name
+    shape : shape name, or "properties" when given by A and I
+    A : area [m^2]
+    I_major, I_minor : principal second moments of area [m^4]
+    mass : mass per length [kg/m]
+    row : line number in the file
+    """
+
+    name: str
+    shape: str
+    A: float
+    I_major: float
+    I_minor: float
+    mass: float
+    row: int = 0
 
 
 @dataclass(frozen=True)

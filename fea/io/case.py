@@ -1,32 +1,41 @@
-"""Case files: TOML with units -> validated :class:`Case` holding one column per bending plane.
+"""Case files: TOML with units -> validated :class:`~fea.model.case.Case` holding one column per bending plane.
 
 The format is documented in ``cases/README.md``.  Every dimensional value is a
 string with its unit; bare numbers where a dimension is expected, unknown keys
 (with a "did you mean"), wrong types and impossible values are errors that
 name the key path, e.g. ``segment[2].I_major`` (arrays of tables are counted
 from 1, as an engineer reads the file).
+
+This module reads the tables of the column itself.  The tables of the optional
+analyses (``[design]``, ``[imperfection]``, ``[study]``, ...) are read by the
+parsers the caller passes as ``tables``; :mod:`fea.pipeline` passes those of
+its list of analyses.
 """
 
 from __future__ import annotations
 
-import difflib
 import hashlib
 import math
 import tomllib
 from dataclasses import dataclass
 from pathlib import Path
-from typing import Any
+from types import MappingProxyType
+from typing import Any, Callable, Mapping
 
 from ..errors import CaseError, ModelError
-from ..model.case import Case, SegmentInfo
-from ..model import FREE, RIGID, Column, DistributedLoad, Foundation, LeaningLoad, PointLoad, Restraint, Segment
+from ..model import Column, DistributedLoad, Foundation, LeaningLoad, PointLoad, Restraint, Segment
+from ..model.case import Case, SegmentInfo, TableRef
 from ..units import DisplayUnits, parse
+from .section_input import parse_section
+from .tables import AXES, Stations, as_bool, as_str, as_table, as_tables, axes, check_keys, positive, spring
 
-__all__ = ["Case", "SegmentInfo", "load_case", "parse_case", "AXES", "SECTION_HOOK"]
+__all__ = ["load_case", "parse_case", "parse_document", "AXES", "TOP_KEYS", "LOAD_KEYS", "TableParser"]
 
-AXES = ("major", "minor")
 DEFAULT_MODES = 3
 DEFAULT_TOLERANCE = 1e-6
+
+#: A parser of an optional top-level table: (table, whole document) -> parsed object kept in ``Case.extras``.
+TableParser = Callable[[dict, dict], Any]
 
 #: Far-end conditions of a restraining beam -> stiffness coefficient c in c E I / L.
 BEAM_FAR_END = {
@@ -36,107 +45,21 @@ BEAM_FAR_END = {
     "single-curvature": 2.0,   # symmetric bending (braced frames): equal and opposite end rotations
 }
 
-#: Optional hook, set by the sections module, that turns a ``section`` table into
-#: properties: f(table, key_path) -> dict with I_major, I_minor, A (SI) and more.
-SECTION_HOOK = None
-
 TOP_KEYS = {"title", "units", "material", "analysis", "segment", "restraint", "load", "distributed_load",
             "foundation", "leaning"}
-#: Top-level tables added by later analyses (imperfection, design, study, ...):
-#: name -> parser(table, case_dict) -> parsed object stored in Case.extras.
-EXTRA_SECTIONS: dict[str, Any] = {}
+#: Keys of a [[load]]; eccentricities and the lateral force are read by the imperfect-column analysis.
+LOAD_KEYS = {"at", "axial", "permanent", "eccentricity", "eccentricity_major", "eccentricity_minor", "lateral",
+             "note"}
+#: [[load]] keys that imply a second-order analysis of the loaded column.
+LOAD_ACTION_KEYS = {"eccentricity", "eccentricity_major", "eccentricity_minor", "lateral"}
+SEGMENT_KEYS = {"length", "E", "fy", "I", "I_major", "I_minor", "I_top", "I_major_top", "I_minor_top",
+                "taper_exponent", "A", "S", "S_major", "S_minor", "name", "section"}
+
+_NO_TABLES: Mapping[str, TableParser] = MappingProxyType({})
 
 
-# ---------------------------------------------------------------------------
-# helpers
-
-
-def _check_keys(table: dict, path: str, allowed: set[str]) -> None:
-    for key in table:
-        if key not in allowed:
-            close = difflib.get_close_matches(key, sorted(allowed), n=1, cutoff=0.6)
-            hint = f"; did you mean `{close[0]}`?" if close else f"; expected one of {', '.join(sorted(allowed))}"
-            where = f"{path}.{key}" if path else key
-            raise CaseError(where, f"unknown key{hint}")
-
-
-def _table(value: Any, path: str) -> dict:
-    if not isinstance(value, dict):
-        raise CaseError(path, f"expected a table, got {type(value).__name__} {value!r}")
-    return value
-
-
-def _tables(doc: dict, key: str) -> list[dict]:
-    value = doc.get(key, [])
-    if isinstance(value, dict):
-        value = [value]
-    if not isinstance(value, list):
-        raise CaseError(key, f"expected [[{key}]] tables, got {value!r}")
-    return [_table(v, f"{key}[{i + 1}]") for i, v in enumerate(value)]
-
-
-def _bool(value: Any, path: str) -> bool:
-    if not isinstance(value, bool):
-        raise CaseError(path, f"expected true or false, got {value!r}")
-    return value
-
-
-def _str(value: Any, path: str) -> str:
-    if not isinstance(value, str):
-        raise CaseError(path, f"expected a string, got {value!r}")
-    return value
-
-
-def _positive(path: str, value: Any, dimension: str) -> float:
-    v = parse(path, value, dimension)
-    if not v > 0:
-        raise CaseError(path, f"{value!r} must be positive")
-    return v
-
-
-def _spring(path: str, value: Any, dimension: str) -> float:
-    if isinstance(value, str) and value.strip().lower() in ("rigid", "fixed"):
-        return RIGID
-    if isinstance(value, str) and value.strip().lower() in ("free", "none"):
-        return FREE
-    v = parse(path, value, dimension)
-    if v < 0:
-        raise CaseError(path, f"{value!r} must be >= 0 (or 'free' / 'rigid')")
-    return v
-
-
-def _axes(value: Any, path: str, planes: tuple[str, ...]) -> tuple[str, ...]:
-    if value is None or value == "both":
-        return planes
-    if not isinstance(value, str) or value not in AXES:
-        raise CaseError(path, f"expected 'major', 'minor' or 'both', got {value!r}")
-    if planes == ("in-plane",):
-        raise CaseError(path, f"{value!r} given, but the segments give a single I (one-plane study): "
-                              "give I_major and I_minor, or leave the axis out")
-    return (value,)
-
-
-class _Stations:
-    def __init__(self, H: float):
-        self.H = H
-
-    def __call__(self, value: Any, path: str) -> float:
-        if isinstance(value, str) and value.strip().lower() == "base":
-            return 0.0
-        if isinstance(value, str) and value.strip().lower() == "top":
-            return self.H
-        x = parse(path, value, "length") if not (isinstance(value, str) and value.strip() in ("0", "0.0")) else 0.0
-        tol = 1e-9 * self.H
-        if x < -tol or x > self.H + tol:
-            raise CaseError(path, f"height {value!r} is outside the column (0 to {self.H:g} m from the base)")
-        return min(max(x, 0.0), self.H)
-
-
-# ---------------------------------------------------------------------------
-
-
-def load_case(path: str | Path) -> Case:
-    """Read and validate a case file."""
+def load_case(path: str | Path, tables: Mapping[str, TableParser] = _NO_TABLES) -> Case:
+    """Read and validate a case file (``tables``: parsers of the optional tables it may hold)."""
     p = Path(path)
     try:
         data = p.read_bytes()
@@ -146,14 +69,11 @@ def load_case(path: str | Path) -> Case:
         raise CaseError("", f"{str(p)!r} is a folder, not a case file") from None
     except OSError as exc:
         raise CaseError("", f"cannot read case file {str(p)!r}: {exc.strerror}") from None
-    return parse_case(data, source=str(p))
+    return parse_case(data, source=str(p), tables=tables)
 
 
-def parse_case(data: bytes | str, source: str = "") -> Case:
+def parse_case(data: bytes | str, source: str = "", tables: Mapping[str, TableParser] = _NO_TABLES) -> Case:
     """Parse case-file text (TOML) into a :class:`Case`."""
-    from ..extensions import load as _load_extensions
-
-    _load_extensions()
     raw = data.encode("utf-8") if isinstance(data, str) else data
     try:
         text = raw.decode("utf-8")
@@ -163,191 +83,274 @@ def parse_case(data: bytes | str, source: str = "") -> Case:
         doc = tomllib.loads(text)
     except tomllib.TOMLDecodeError as exc:
         raise CaseError("", f"TOML syntax error: {exc}") from None
+    return parse_document(doc, source=source, sha256=hashlib.sha256(raw).hexdigest(), tables=tables)
+
+
+def parse_document(doc: dict, source: str = "", sha256: str = "",
+                   tables: Mapping[str, TableParser] = _NO_TABLES) -> Case:
+    """A parsed TOML document (plain data) -> :class:`Case`; studies rebuild changed cases through this."""
     if not doc:
         raise CaseError("", "the case file is empty: it needs at least one [[segment]] and a [[restraint]]")
-    _check_keys(doc, "", TOP_KEYS | set(EXTRA_SECTIONS))
-    title = _str(doc.get("title", ""), "title")
+    check_keys(doc, "", TOP_KEYS | set(tables))
+    title = as_str(doc.get("title", ""), "title")
+    display = _display_units(doc)
+    n_modes, tol = _analysis_options(doc)
+    E, fy, mat = _material(doc)
+    parsed = _segments(doc, E, fy)
+    planes: tuple[str, ...] = ("in-plane",) if "I" in parsed[0].props else AXES
+    station = Stations(parsed[-1].top)
+    origins: dict[str, tuple[TableRef, ...]] = {}
+    rest = _restraints(doc, station, planes, E, origins)
+    point, dist = _loads(doc, station)
+    found = _foundations(doc, station, planes, origins)
+    lean = _leaning(doc, station, planes, origins)
+    columns = []
+    for ax in planes:
+        try:
+            col = Column(segments=_plane_segments(parsed, ax), restraints=tuple(rest[ax]), point_loads=tuple(point),
+                         distributed_loads=tuple(dist), foundations=tuple(found[ax]),
+                         leaning_loads=tuple(lean[ax]), title=title)
+        except CaseError:
+            raise
+        except ModelError as exc:  # pragma: no cover - the case checks come first
+            raise CaseError(exc.field, exc.message) from None
+        columns.append((ax, col))
+    for i in range(len(parsed)):
+        origins[f"segment[{i + 1}]"] = tuple(TableRef(ax, "segments", i) for ax in planes)
+    for i in range(len(point)):
+        origins[f"load[{i + 1}]"] = tuple(TableRef(ax, "point_loads", i) for ax in planes)
+    for i in range(len(dist)):
+        origins[f"distributed_load[{i + 1}]"] = tuple(TableRef(ax, "distributed_loads", i) for ax in planes)
+    return Case(title=title, planes=tuple(columns), segments=tuple(s.info() for s in parsed),
+                E=E if E is not None else parsed[0].E, fy=fy, n_modes=int(n_modes), tolerance=float(tol),
+                display=display, source=source, sha256=sha256, extras=_extra_tables(doc, tables), material=mat,
+                origins=MappingProxyType(origins), document=MappingProxyType(doc))
 
-    # units ------------------------------------------------------------
-    units = _table(doc.get("units", {}), "units")
-    _check_keys(units, "units", {"length", "force"})
-    display = DisplayUnits.from_names(_str(units.get("length", "m"), "units.length"),
-                                      _str(units.get("force", "kN"), "units.force"))
 
-    # analysis ----------------------------------------------------------
-    analysis = _table(doc.get("analysis", {}), "analysis")
-    _check_keys(analysis, "analysis", {"modes", "tolerance"})
+# ---------------------------------------------------------------------------
+# the tables of the column
+
+
+def _display_units(doc: dict) -> DisplayUnits:
+    units = as_table(doc.get("units", {}), "units")
+    check_keys(units, "units", {"length", "force"})
+    return DisplayUnits.from_names(as_str(units.get("length", "m"), "units.length"),
+                                   as_str(units.get("force", "kN"), "units.force"))
+
+
+def _analysis_options(doc: dict) -> tuple[int, float]:
+    analysis = as_table(doc.get("analysis", {}), "analysis")
+    check_keys(analysis, "analysis", {"modes", "tolerance"})
     n_modes = analysis.get("modes", DEFAULT_MODES)
     if isinstance(n_modes, bool) or not isinstance(n_modes, int) or not 1 <= n_modes <= 50:
         raise CaseError("analysis.modes", f"expected a whole number from 1 to 50, got {n_modes!r}")
     tol = analysis.get("tolerance", DEFAULT_TOLERANCE)
     if isinstance(tol, bool) or not isinstance(tol, (int, float)) or not 1e-12 <= tol <= 1e-2:
         raise CaseError("analysis.tolerance", f"expected a relative tolerance from 1e-12 to 1e-2, got {tol!r}")
+    return n_modes, tol
 
-    # material ----------------------------------------------------------
-    material = _table(doc.get("material", {}), "material")
-    _check_keys(material, "material", {"E", "fy", "fu", "name", "sigma_allow"})
-    E = _positive("material.E", material["E"], "stress") if "E" in material else None
-    fy = _positive("material.fy", material["fy"], "stress") if "fy" in material else None
-    mat = {"name": _str(material.get("name", ""), "material.name")}
+
+def _material(doc: dict) -> tuple[float | None, float | None, dict]:
+    material = as_table(doc.get("material", {}), "material")
+    check_keys(material, "material", {"E", "fy", "fu", "name", "sigma_allow"})
+    E = positive("material.E", material["E"], "stress") if "E" in material else None
+    fy = positive("material.fy", material["fy"], "stress") if "fy" in material else None
+    mat: dict[str, Any] = {"name": as_str(material.get("name", ""), "material.name")}
     if "fu" in material:
-        mat["fu"] = _positive("material.fu", material["fu"], "stress")
+        mat["fu"] = positive("material.fu", material["fu"], "stress")
     if "sigma_allow" in material:
-        mat["sigma_allow"] = _positive("material.sigma_allow", material["sigma_allow"], "stress")
+        mat["sigma_allow"] = positive("material.sigma_allow", material["sigma_allow"], "stress")
+    return E, fy, mat
 
-    # segments ----------------------------------------------------------
-    seg_tables = _tables(doc, "segment")
+
+@dataclass
+class _SegmentInput:
+    """One [[segment]] table read (SI)."""
+
+    length: float
+    E: float
+    fy: float | None
+    props: dict
+    A: float | None
+    taper: float
+    S: dict
+    name: str
+    bottom: float
+    section: dict | None
+    shape: Any
+    section_props: dict | None
+
+    @property
+    def top(self) -> float:
+        return self.bottom + self.length
+
+    def info(self) -> SegmentInfo:
+        pr = self.props
+        return SegmentInfo(name=self.name, bottom=self.bottom, top=self.top, A=self.A, fy=self.fy,
+                           I_major=pr.get("I_major", pr.get("I")), I_minor=pr.get("I_minor", pr.get("I")),
+                           section=self.section, shape=self.shape,
+                           properties=None if self.section_props is None else MappingProxyType(self.section_props))
+
+
+def _segments(doc: dict, E: float | None, fy: float | None) -> list[_SegmentInput]:
+    seg_tables = as_tables(doc, "segment")
     if not seg_tables:
         raise CaseError("segment", "no [[segment]] given: a column needs at least one segment")
-    seg_keys = {"length", "E", "fy", "I", "I_major", "I_minor", "I_top", "I_major_top", "I_minor_top",
-                "taper_exponent", "A", "S", "S_major", "S_minor", "name", "section"}
-    parsed = []
+    parsed: list[_SegmentInput] = []
     single = multi = False
     z = 0.0
     for i, t in enumerate(seg_tables):
-        p = f"segment[{i + 1}]"
-        _check_keys(t, p, seg_keys)
-        if "length" not in t:
-            raise CaseError(f"{p}.length", "missing: every segment needs a length such as '3.0 m'")
-        length = _positive(f"{p}.length", t["length"], "length")
-        Es = _positive(f"{p}.E", t["E"], "stress") if "E" in t else E
-        if Es is None:
-            raise CaseError(f"{p}.E", "missing: give E here or in [material]")
-        fys = _positive(f"{p}.fy", t["fy"], "stress") if "fy" in t else fy
-        props: dict[str, float | None] = {}
-        section = None
-        if "section" in t:
-            if SECTION_HOOK is None:
-                raise CaseError(f"{p}.section", "sections by shape are not available in this version")
-            section = _table(t["section"], f"{p}.section")
-            props = dict(SECTION_HOOK(section, f"{p}.section"))
-        for k in ("I", "I_major", "I_minor", "I_top", "I_major_top", "I_minor_top"):
-            if k in t:
-                props[k] = _positive(f"{p}.{k}", t[k], "second moment of area")
-        A = _positive(f"{p}.A", t["A"], "area") if "A" in t else props.get("A")
-        has_single = "I" in props
-        has_multi = "I_major" in props or "I_minor" in props
-        if has_single and has_multi:
-            raise CaseError(p, "give either I (one-plane study) or I_major and I_minor, not both")
-        if not has_single and not has_multi:
-            raise CaseError(f"{p}.I_major", "missing: give I_major and I_minor (or I for a one-plane study)")
-        if has_multi and not ("I_major" in props and "I_minor" in props):
-            missing = "I_minor" if "I_major" in props else "I_major"
-            raise CaseError(f"{p}.{missing}", "missing: both I_major and I_minor are needed")
-        if has_multi and props["I_minor"] > props["I_major"] * (1 + 1e-9) and section is None:
-            raise CaseError(f"{p}.I_minor", "is larger than I_major: the major axis has the larger I")
-        single |= has_single
-        multi |= has_multi
-        taper_n = t.get("taper_exponent", 1.0)
-        if isinstance(taper_n, bool) or not isinstance(taper_n, (int, float)) or not 0.5 <= taper_n <= 8:
-            raise CaseError(f"{p}.taper_exponent", f"expected a number from 0.5 to 8, got {taper_n!r}")
-        S = {}
-        for k in ("S", "S_major", "S_minor"):
-            if k in t:
-                S[k] = _positive(f"{p}.{k}", t[k], "force")
-        name = _str(t.get("name", f"segment {i + 1}"), f"{p}.name")
-        parsed.append(dict(length=length, E=Es, fy=fys, props=props, A=A, taper=float(taper_n), S=S, name=name,
-                           bottom=z, section=section))
-        z += length
+        s = _segment(t, f"segment[{i + 1}]", i, z, E, fy)
+        single |= "I" in s.props
+        multi |= "I_major" in s.props
+        parsed.append(s)
+        z += s.length
     if single and multi:
         raise CaseError("segment", "some segments give I and others I_major/I_minor: use one style throughout")
-    planes: tuple[str, ...] = ("in-plane",) if single else AXES
-    H = z
-    station = _Stations(H)
+    return parsed
 
-    seg_info = tuple(
-        SegmentInfo(name=s["name"], bottom=s["bottom"], top=s["bottom"] + s["length"], A=s["A"], fy=s["fy"],
-                    I_major=s["props"].get("I_major", s["props"].get("I")),
-                    I_minor=s["props"].get("I_minor", s["props"].get("I")), section=s["section"])
-        for s in parsed)
 
-    def segments_for(axis: str) -> tuple[Segment, ...]:
-        key = "I" if axis == "in-plane" else f"I_{axis}"
-        out = []
-        for i, s in enumerate(parsed):
-            pr = s["props"]
-            S_val = s["S"].get("S" if axis == "in-plane" else f"S_{axis}", s["S"].get("S"))
-            try:
-                out.append(Segment(length=s["length"], E=s["E"], I=pr[key], I_top=pr.get(f"{key}_top"),
-                                   taper_exponent=s["taper"], A=s["A"], S=S_val, name=s["name"]))
-            except ModelError as exc:
-                raise CaseError(f"segment[{i + 1}].{exc.field}", exc.message) from None
-        return tuple(out)
+def _segment(t: dict, p: str, i: int, z: float, E: float | None, fy: float | None) -> _SegmentInput:
+    check_keys(t, p, SEGMENT_KEYS)
+    if "length" not in t:
+        raise CaseError(f"{p}.length", "missing: every segment needs a length such as '3.0 m'")
+    length = positive(f"{p}.length", t["length"], "length")
+    Es = positive(f"{p}.E", t["E"], "stress") if "E" in t else E
+    if Es is None:
+        raise CaseError(f"{p}.E", "missing: give E here or in [material]")
+    fys = positive(f"{p}.fy", t["fy"], "stress") if "fy" in t else fy
+    props: dict[str, float | None] = {}
+    section = shape = section_props = None
+    if "section" in t:
+        section = as_table(t["section"], f"{p}.section")
+        shape, section_props = parse_section(section, f"{p}.section")
+        props = dict(section_props)
+    for k in ("I", "I_major", "I_minor", "I_top", "I_major_top", "I_minor_top"):
+        if k in t:
+            props[k] = positive(f"{p}.{k}", t[k], "second moment of area")
+    A = positive(f"{p}.A", t["A"], "area") if "A" in t else props.get("A")
+    has_single = "I" in props
+    has_multi = "I_major" in props or "I_minor" in props
+    if has_single and has_multi:
+        raise CaseError(p, "give either I (one-plane study) or I_major and I_minor, not both")
+    if not has_single and not has_multi:
+        raise CaseError(f"{p}.I_major", "missing: give I_major and I_minor (or I for a one-plane study)")
+    if has_multi and not ("I_major" in props and "I_minor" in props):
+        missing = "I_minor" if "I_major" in props else "I_major"
+        raise CaseError(f"{p}.{missing}", "missing: both I_major and I_minor are needed")
+    if has_multi and props["I_minor"] > props["I_major"] * (1 + 1e-9) and section is None:
+        raise CaseError(f"{p}.I_minor", "is larger than I_major: the major axis has the larger I")
+    taper_n = t.get("taper_exponent", 1.0)
+    if isinstance(taper_n, bool) or not isinstance(taper_n, (int, float)) or not 0.5 <= taper_n <= 8:
+        raise CaseError(f"{p}.taper_exponent", f"expected a number from 0.5 to 8, got {taper_n!r}")
+    S = {k: positive(f"{p}.{k}", t[k], "force") for k in ("S", "S_major", "S_minor") if k in t}
+    name = as_str(t.get("name", f"segment {i + 1}"), f"{p}.name")
+    return _SegmentInput(length=length, E=Es, fy=fys, props=props, A=A, taper=float(taper_n), S=S, name=name,
+                         bottom=z, section=section, shape=shape, section_props=section_props)
 
-    # restraints -----------------------------------------------------------
+
+def _plane_segments(parsed: list[_SegmentInput], axis: str) -> tuple[Segment, ...]:
+    key = "I" if axis == "in-plane" else f"I_{axis}"
+    out = []
+    for i, s in enumerate(parsed):
+        pr = s.props
+        S_val = s.S.get("S" if axis == "in-plane" else f"S_{axis}", s.S.get("S"))
+        try:
+            out.append(Segment(length=s.length, E=s.E, I=pr[key], I_top=pr.get(f"{key}_top"),
+                               taper_exponent=s.taper, A=s.A, S=S_val, name=s.name))
+        except ModelError as exc:
+            raise CaseError(f"segment[{i + 1}].{exc.field}", exc.message) from None
+    return tuple(out)
+
+
+def _restraints(doc: dict, station: Stations, planes: tuple[str, ...], E: float | None,
+                origins: dict) -> dict[str, list[Restraint]]:
     rest: dict[str, list[Restraint]] = {a: [] for a in planes}
-    for i, t in enumerate(_tables(doc, "restraint")):
+    for i, t in enumerate(as_tables(doc, "restraint")):
         p = f"restraint[{i + 1}]"
-        _check_keys(t, p, {"at", "axis", "lateral", "rotation", "beam", "note"})
+        check_keys(t, p, {"at", "axis", "lateral", "rotation", "beam", "note"})
         if "at" not in t:
             raise CaseError(f"{p}.at", "missing: give 'base', 'top' or a height such as '2.1 m'")
         at = station(t["at"], f"{p}.at")
-        axes = _axes(t.get("axis"), f"{p}.axis", planes)
-        lateral = _spring(f"{p}.lateral", t.get("lateral", "free"), "translational stiffness")
-        rotation = _spring(f"{p}.rotation", t.get("rotation", "free"), "rotational stiffness")
+        ax = axes(t.get("axis"), f"{p}.axis", planes)
+        lateral = spring(f"{p}.lateral", t.get("lateral", "free"), "translational stiffness")
+        rotation = spring(f"{p}.rotation", t.get("rotation", "free"), "rotational stiffness")
         beams = t.get("beam", [])
         if isinstance(beams, dict):
             beams = [beams]
         if not isinstance(beams, list):
             raise CaseError(f"{p}.beam", "expected [[restraint.beam]] tables")
         for j, b in enumerate(beams):
-            rotation += _beam_stiffness(_table(b, f"{p}.beam[{j + 1}]"), f"{p}.beam[{j + 1}]", E)
+            rotation += _beam_stiffness(as_table(b, f"{p}.beam[{j + 1}]"), f"{p}.beam[{j + 1}]", E)
         if lateral == 0 and rotation == 0:
             raise CaseError(p, "restrains nothing: give lateral and/or rotation")
-        for a in axes:
+        origins[p] = tuple(TableRef(a, "restraints", len(rest[a])) for a in ax)
+        for a in ax:
             rest[a].append(Restraint(at, lateral, rotation))
     if not any(rest.values()):
         raise CaseError("restraint", "no [[restraint]] given: the column is unsupported")
+    return rest
 
-    # loads ------------------------------------------------------------------
+
+def _loads(doc: dict, station: Stations) -> tuple[list[PointLoad], list[DistributedLoad]]:
     point: list[PointLoad] = []
-    for i, t in enumerate(_tables(doc, "load")):
+    for i, t in enumerate(as_tables(doc, "load")):
         p = f"load[{i + 1}]"
-        _check_keys(t, p, {"at", "axial", "permanent", "eccentricity", "lateral", "note"} | _LOAD_EXTRA)
+        check_keys(t, p, LOAD_KEYS)
         if "at" not in t:
             raise CaseError(f"{p}.at", "missing: give 'top' or a height such as '3.0 m'")
         at = station(t["at"], f"{p}.at")
         P = parse(f"{p}.axial", t["axial"], "force") if "axial" in t else 0.0
-        point.append(PointLoad(at, P, _bool(t.get("permanent", False), f"{p}.permanent")))
+        point.append(PointLoad(at, P, as_bool(t.get("permanent", False), f"{p}.permanent")))
     dist: list[DistributedLoad] = []
-    for i, t in enumerate(_tables(doc, "distributed_load")):
+    for i, t in enumerate(as_tables(doc, "distributed_load")):
         p = f"distributed_load[{i + 1}]"
-        _check_keys(t, p, {"from", "to", "axial", "permanent", "note"})
-        a = station(t.get("from", "base"), f"{p}.from")
-        b = station(t.get("to", "top"), f"{p}.to")
-        if not b > a:
-            raise CaseError(f"{p}.to", f"must be above `from` ({a:g} m)")
+        check_keys(t, p, {"from", "to", "axial", "permanent", "note"})
+        a, b = _range(t, p, station)
         if "axial" not in t:
             raise CaseError(f"{p}.axial", "missing: give a load per height such as '0.6 kN/m'")
         q = parse(f"{p}.axial", t["axial"], "force per length")
-        dist.append(DistributedLoad(a, b, q, _bool(t.get("permanent", False), f"{p}.permanent")))
+        dist.append(DistributedLoad(a, b, q, as_bool(t.get("permanent", False), f"{p}.permanent")))
     if not point and not dist:
         raise CaseError("load", "no [[load]] or [[distributed_load]] given: nothing to check")
+    return point, dist
 
+
+def _range(t: dict, p: str, station: Stations) -> tuple[float, float]:
+    a = station(t.get("from", "base"), f"{p}.from")
+    b = station(t.get("to", "top"), f"{p}.to")
+    if not b > a:
+        raise CaseError(f"{p}.to", f"must be above `from` ({a:g} m)")
+    return a, b
+
+
+def _foundations(doc: dict, station: Stations, planes: tuple[str, ...], origins: dict) -> dict[str, list[Foundation]]:
     found: dict[str, list[Foundation]] = {a: [] for a in planes}
-    for i, t in enumerate(_tables(doc, "foundation")):
+    for i, t in enumerate(as_tables(doc, "foundation")):
         p = f"foundation[{i + 1}]"
-        _check_keys(t, p, {"from", "to", "modulus", "modulus_bottom", "modulus_top", "axis", "note"})
-        a = station(t.get("from", "base"), f"{p}.from")
-        b = station(t.get("to", "top"), f"{p}.to")
-        if not b > a:
-            raise CaseError(f"{p}.to", f"must be above `from` ({a:g} m)")
+        check_keys(t, p, {"from", "to", "modulus", "modulus_bottom", "modulus_top", "axis", "note"})
+        a, b = _range(t, p, station)
         if "modulus" in t:
-            kb = kt = _positive(f"{p}.modulus", t["modulus"], "foundation modulus")
+            kb = kt = positive(f"{p}.modulus", t["modulus"], "foundation modulus")
         elif "modulus_bottom" in t or "modulus_top" in t:
-            kb = _spring(f"{p}.modulus_bottom", t.get("modulus_bottom", "0 N/m^2"), "foundation modulus")
-            kt = _spring(f"{p}.modulus_top", t.get("modulus_top", "0 N/m^2"), "foundation modulus")
+            kb = spring(f"{p}.modulus_bottom", t.get("modulus_bottom", "0 N/m^2"), "foundation modulus")
+            kt = spring(f"{p}.modulus_top", t.get("modulus_top", "0 N/m^2"), "foundation modulus")
             if kb == kt == 0 or math.isinf(kb) or math.isinf(kt):
                 raise CaseError(p, "modulus must be finite and not zero at both ends")
         else:
             raise CaseError(f"{p}.modulus", "missing: give modulus, or modulus_bottom and modulus_top")
-        for ax in _axes(t.get("axis"), f"{p}.axis", planes):
-            found[ax].append(Foundation(a, b, kb, kt))
+        ax = axes(t.get("axis"), f"{p}.axis", planes)
+        origins[p] = tuple(TableRef(x, "foundations", len(found[x])) for x in ax)
+        for x in ax:
+            found[x].append(Foundation(a, b, kb, kt))
+    return found
 
+
+def _leaning(doc: dict, station: Stations, planes: tuple[str, ...], origins: dict) -> dict[str, list[LeaningLoad]]:
     lean: dict[str, list[LeaningLoad]] = {a: [] for a in planes}
-    for i, t in enumerate(_tables(doc, "leaning")):
+    for i, t in enumerate(as_tables(doc, "leaning")):
         p = f"leaning[{i + 1}]"
-        _check_keys(t, p, {"at", "load", "height", "permanent", "axis", "note"})
+        check_keys(t, p, {"at", "load", "height", "permanent", "axis", "note"})
         for k in ("at", "load", "height"):
             if k not in t:
                 raise CaseError(f"{p}.{k}", "missing")
@@ -355,58 +358,44 @@ def parse_case(data: bytes | str, source: str = "") -> Case:
         P = parse(f"{p}.load", t["load"], "force")
         if P < 0:
             raise CaseError(f"{p}.load", f"{t['load']!r} must be >= 0 (gravity load on the leaning columns)")
-        h = _positive(f"{p}.height", t["height"], "length")
-        for ax in _axes(t.get("axis"), f"{p}.axis", planes):
-            lean[ax].append(LeaningLoad(at, P, h, _bool(t.get("permanent", False), f"{p}.permanent")))
+        h = positive(f"{p}.height", t["height"], "length")
+        ax = axes(t.get("axis"), f"{p}.axis", planes)
+        origins[p] = tuple(TableRef(x, "leaning_loads", len(lean[x])) for x in ax)
+        for x in ax:
+            lean[x].append(LeaningLoad(at, P, h, as_bool(t.get("permanent", False), f"{p}.permanent")))
+    return lean
 
-    columns = []
-    for ax in planes:
-        try:
-            col = Column(segments=segments_for(ax), restraints=tuple(rest[ax]), point_loads=tuple(point),
-                         distributed_loads=tuple(dist), foundations=tuple(found[ax]), leaning_loads=tuple(lean[ax]),
-                         title=title)
-        except CaseError:
-            raise
-        except ModelError as exc:  # pragma: no cover - the case checks come first
-            raise CaseError(exc.field, exc.message) from None
-        columns.append((ax, col))
 
+def _extra_tables(doc: dict, tables: Mapping[str, TableParser]) -> dict:
+    """The optional tables, parsed by their own parsers, in the order the parsers are listed."""
     extras = {}
-    for name, parser in EXTRA_SECTIONS.items():
+    for name, parser in tables.items():
         if name in doc:
-            extras[name] = parser(_table(doc[name], name), doc)
+            extras[name] = parser(as_table(doc[name], name), doc)
     # An eccentricity or lateral force on a [[load]] is read by the imperfect-column analysis.  Without an
     # [imperfection] or [lateral] table it still must not be ignored: it implies an empty [lateral] table
     # (the second-order analysis of the straight column with those actions).
-    load_actions = [(i, k) for i, t in enumerate(_tables(doc, "load"))
-                    for k in t if k in {"eccentricity", "lateral"} | _LOAD_EXTRA]
+    load_actions = [(i, k) for i, t in enumerate(as_tables(doc, "load")) for k in t if k in LOAD_ACTION_KEYS]
     if load_actions and "imperfection" not in extras and "lateral" not in extras:
-        if "lateral" not in EXTRA_SECTIONS:
+        if "lateral" not in tables:
             i, k = load_actions[0]
             raise CaseError(f"load[{i + 1}].{k}", "is read only by the imperfect-column analysis, "
                                                  "which this installation does not have")
-        extras["lateral"] = EXTRA_SECTIONS["lateral"]({}, doc)
-
-    return Case(title=title, planes=tuple(columns), segments=seg_info, E=E if E is not None else parsed[0]["E"],
-                fy=fy, n_modes=int(n_modes), tolerance=float(tol), display=display, source=source,
-                sha256=hashlib.sha256(raw).hexdigest(), extras=extras, material=mat)
-
-
-#: Extra keys a [[load]] may carry for later analyses.
-_LOAD_EXTRA: set[str] = set()
+        extras["lateral"] = tables["lateral"]({}, doc)
+    return extras
 
 
 def _beam_stiffness(t: dict, path: str, E_default: float | None) -> float:
     """Rotational stiffness c E I / L of a restraining beam (c from :data:`BEAM_FAR_END`)."""
-    _check_keys(t, path, {"E", "I", "span", "far_end", "note"})
-    E = _positive(f"{path}.E", t["E"], "stress") if "E" in t else E_default
+    check_keys(t, path, {"E", "I", "span", "far_end", "note"})
+    E = positive(f"{path}.E", t["E"], "stress") if "E" in t else E_default
     if E is None:
         raise CaseError(f"{path}.E", "missing: give E here or in [material]")
     if "I" not in t or "span" not in t or "far_end" not in t:
         missing = next(k for k in ("I", "span", "far_end") if k not in t)
         raise CaseError(f"{path}.{missing}", "missing: a restraining beam needs I, span and far_end")
-    I = _positive(f"{path}.I", t["I"], "second moment of area")
-    span = _positive(f"{path}.span", t["span"], "length")
+    I = positive(f"{path}.I", t["I"], "second moment of area")
+    span = positive(f"{path}.span", t["span"], "length")
     far = t["far_end"]
     if far not in BEAM_FAR_END:
         raise CaseError(f"{path}.far_end", f"expected one of {', '.join(BEAM_FAR_END)}, got {far!r}")

@@ -19,9 +19,9 @@ import csv
 import io
 import math
 import re
-from dataclasses import dataclass
 from pathlib import Path
 
+from ..design.sizing import Candidate
 from ..errors import CaseError
 from ..units import parse, registry
 
@@ -29,29 +29,6 @@ __all__ = ["Candidate", "load_catalogue", "parse_catalogue"]
 
 _HEADER = re.compile(r"^\s*([A-Za-z_][A-Za-z_0-9]*)\s*(?:\[(.*)\])?\s*$")
 _PROPS = {"A": "area", "I_major": "second moment of area", "I_minor": "second moment of area"}
-
-
-@dataclass(frozen=True)
-class Candidate:
-    """One catalogue section (SI).
-
-    Attributes
-    ----------
-    name : catalogue name
-    shape : shape name, or "properties" when given by A and I
-    A : area [m^2]
-    I_major, I_minor : principal second moments of area [m^4]
-    mass : mass per length [kg/m]
-    row : line number in the file
-    """
-
-    name: str
-    shape: str
-    A: float
-    I_major: float
-    I_minor: float
-    mass: float
-    row: int = 0
 
 
 def load_catalogue(path: str | Path) -> tuple[Candidate, ...]:
@@ -82,7 +59,7 @@ def _mass(where: str, text: str) -> float:
 
 def parse_catalogue(text: str, source: str = "catalogue") -> tuple[Candidate, ...]:
     """Parse catalogue CSV text into candidates (see the module docstring for the format)."""
-    from .design_input import build_shape
+    from .section_input import build_shape
 
     lines = [(n + 1, ln) for n, ln in enumerate(text.splitlines()) if ln.strip() and not ln.lstrip().startswith("#")]
     if not lines:

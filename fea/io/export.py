@@ -2,29 +2,14 @@
 
 from __future__ import annotations
 
-import json
-import math
-import os
-import tempfile
-from pathlib import Path
-from typing import Any
+from typing import Any, Callable, Mapping
 
-from .. import __version__
 from ..cautions import CAUTION, LIMITATIONS
-from ..results import BucklingResult
-from ..results import CaseResults
+from ..results import BucklingResult, CaseResults
+from ..util.numbers import finite_or_none as _num
+from ..version import __version__
 
-__all__ = ["result_dict", "buckling_dict", "write_text_atomic", "to_json", "JSON_SECTIONS"]
-
-#: Optional parts of the JSON result: name -> f(CaseResults extras value) -> JSON-able object.
-JSON_SECTIONS: dict = {}
-
-
-def _num(x: float | None) -> float | None:
-    if x is None:
-        return None
-    x = float(x)
-    return x if math.isfinite(x) else None
+__all__ = ["result_dict", "buckling_dict"]
 
 
 def buckling_dict(r: BucklingResult) -> dict[str, Any]:
@@ -64,8 +49,8 @@ def buckling_dict(r: BucklingResult) -> dict[str, Any]:
     }
 
 
-def result_dict(res: CaseResults) -> dict[str, Any]:
-    """The whole JSON result of a case run."""
+def result_dict(res: CaseResults, parts: Mapping[str, Callable[[Any], Any]]) -> dict[str, Any]:
+    """The whole JSON result of a case run; ``parts`` turns each optional analysis's result into its part."""
     case = res.case
     out: dict[str, Any] = {
         "units": "SI",
@@ -79,25 +64,7 @@ def result_dict(res: CaseResults) -> dict[str, Any]:
         "buckling": [buckling_dict(r) for r in res.buckling],
     }
     for name, value in res.extras.items():
-        if name in JSON_SECTIONS:
-            out[name] = JSON_SECTIONS[name](value)
+        if name in parts:
+            out[name] = parts[name](value)
     out["cautions"] = [CAUTION, *LIMITATIONS]
     return out
-
-
-def to_json(res: CaseResults) -> str:
-    return json.dumps(result_dict(res), indent=2, allow_nan=False)
-
-
-def write_text_atomic(path: str | Path, text: str | bytes) -> None:
-    """Write a file completely or not at all (temporary file + rename in the same folder)."""
-    p = Path(path)
-    mode = "wb" if isinstance(text, bytes) else "w"
-    fd, tmp = tempfile.mkstemp(prefix=f".{p.name}.", dir=str(p.parent or "."))
-    try:
-        with os.fdopen(fd, mode, **({} if mode == "wb" else {"encoding": "utf-8"})) as fh:
-            fh.write(text)
-        os.replace(tmp, p)
-    except BaseException:
-        Path(tmp).unlink(missing_ok=True)
-        raise

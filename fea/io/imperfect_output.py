@@ -31,34 +31,14 @@ from typing import TYPE_CHECKING, Any
 import numpy as np
 
 from ..units import DisplayUnits
+from ..util.numbers import finite_list as _arr  # short names: the dicts below use them on every line
+from ..util.numbers import finite_or_none as _num
+from ..util.numbers import json_clean
 
 if TYPE_CHECKING:
     from ..solve.imperfect import ImperfectResult
 
 __all__ = ["imperfect_json", "imperfect_summary", "result_json"]
-
-
-def _num(x) -> float | None:
-    if x is None:
-        return None
-    x = float(x)
-    return x if math.isfinite(x) else None
-
-
-def _arr(a) -> list:
-    a = np.asarray(a, dtype=float)
-    return np.where(np.isfinite(a), a, np.nan).tolist() if a.size else []
-
-
-def _clean(obj):
-    """Replace NaN / inf by None recursively (JSON has no NaN)."""
-    if isinstance(obj, float):
-        return obj if math.isfinite(obj) else None
-    if isinstance(obj, list):
-        return [_clean(v) for v in obj]
-    if isinstance(obj, dict):
-        return {k: _clean(v) for k, v in obj.items()}
-    return obj
 
 
 def result_json(r: "ImperfectResult") -> dict[str, Any]:
@@ -121,7 +101,7 @@ def result_json(r: "ImperfectResult") -> dict[str, Any]:
             "n_fibres": nl.n_fibres, "n_steps": nl.n_steps, "n_iter": nl.n_iter, "n_bisections": nl.n_bisections,
             "max_residual": _num(nl.max_residual), "tolerance": nl.tolerance,
         }
-    return _clean(out)
+    return json_clean(out)
 
 
 def imperfect_json(results: dict[str, "ImperfectResult"]) -> list[dict[str, Any]]:

@@ -3,15 +3,13 @@
 from __future__ import annotations
 
 import math
+from typing import Any, Callable, Mapping
 
 from ..cautions import CAUTION
 from ..results import CaseResults
 from ..units import DisplayUnits
 
-__all__ = ["summary_lines", "SUMMARY_SECTIONS", "fmt"]
-
-#: Optional parts of the summary: name -> f(extras value, display) -> list of lines.
-SUMMARY_SECTIONS: dict = {}
+__all__ = ["summary_lines", "fmt"]
 
 
 def fmt(x: float, sig: int = 4) -> str:
@@ -25,7 +23,10 @@ def fmt(x: float, sig: int = 4) -> str:
     return f"{x:.{sig - 1}e}"
 
 
-def summary_lines(res: CaseResults, display: DisplayUnits | None = None) -> list[str]:
+def summary_lines(res: CaseResults, display: DisplayUnits | None = None,
+                  parts: Mapping[str, Callable[[Any, DisplayUnits], list[str]]] | None = None) -> list[str]:
+    """The terminal summary; ``parts`` gives the lines of each optional analysis's result."""
+    parts = parts or {}
     case = res.case
     d = display or case.display
     out = [f"{case.title or '(untitled case)'}"]
@@ -37,8 +38,9 @@ def summary_lines(res: CaseResults, display: DisplayUnits | None = None) -> list
         out.append("")
         lf = ", ".join(fmt(v) for v in r.load_factors)
         out.append(f"Axis {r.axis}: load factors {lf}")
+        flag = "" if r.converged else "  NOT CONVERGED"
         out.append(f"  mesh {r.n_elements} elements, estimated error of the lowest load factor "
-                   f"{r.discretisation_error:.1e} (tolerance {r.tolerance:.0e}){'' if r.converged else '  NOT CONVERGED'}")
+                   f"{r.discretisation_error:.1e} (tolerance {r.tolerance:.0e}){flag}")
         for w in r.warnings:
             out.append(f"  WARNING: {w}")
         out.append(f"  {'segment':<22} {'from-to [' + d.length + ']':>15} {'N [' + d.force + ']':>11} "
@@ -57,9 +59,9 @@ def summary_lines(res: CaseResults, display: DisplayUnits | None = None) -> list
         out.append("")
         out.append(f"Governing: {g.axis} axis, lowest load factor {fmt(g.load_factor)}")
     for name, value in res.extras.items():
-        if name in SUMMARY_SECTIONS:
+        if name in parts:
             out.append("")
-            out.extend(SUMMARY_SECTIONS[name](value, d))
+            out.extend(parts[name](value, d))
     out.append("")
     out.append(f"CAUTION: {CAUTION}")
     return out

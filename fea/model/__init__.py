@@ -3,6 +3,18 @@
 validated when built.  The column's names are re-exported here.
 """
 
-from .column import (STATION_TOL, FREE, RIGID, Segment, Restraint, Foundation, PointLoad, DistributedLoad, LeaningLoad, Column)
+from .column import (
+    FREE,
+    RIGID,
+    STATION_TOL,
+    Column,
+    DistributedLoad,
+    Foundation,
+    LeaningLoad,
+    PointLoad,
+    Restraint,
+    Segment,
+)
 
-__all__ = ["STATION_TOL", "FREE", "RIGID", "Segment", "Restraint", "Foundation", "PointLoad", "DistributedLoad", "LeaningLoad", "Column"]
+__all__ = ["STATION_TOL", "FREE", "RIGID", "Segment", "Restraint", "Foundation", "PointLoad", "DistributedLoad",
+           "LeaningLoad", "Column"]

@@ -3,14 +3,15 @@
 from __future__ import annotations
 
 from dataclasses import dataclass, field
-from typing import TYPE_CHECKING
+from types import MappingProxyType
+from typing import TYPE_CHECKING, Any, Mapping
 
 from .column import Column
 
 if TYPE_CHECKING:
     from ..units import DisplayUnits
 
-__all__ = ["Case", "SegmentInfo"]
+__all__ = ["Case", "SegmentInfo", "TableRef"]
 
 
 @dataclass(frozen=True)
@@ -25,6 +26,24 @@ class SegmentInfo:
     I_major: float | None
     I_minor: float | None
     section: dict | None = None
+    #: the section built from ``section`` (a :mod:`fea.sections` shape), parsed once; None without one
+    shape: Any = None
+    #: its properties (I_major, I_minor, A, r_least, theta, J, shape name), SI; None without one
+    properties: Mapping[str, Any] | None = None
+
+
+@dataclass(frozen=True)
+class TableRef:
+    """Where one input table of the case file went in the model.
+
+    ``kind`` names the column's tuple (``"restraints"``, ``"foundations"``,
+    ``"leaning_loads"``, ``"segments"``, ``"point_loads"``, ``"distributed_loads"``)
+    and ``index`` the position in it, in the plane ``axis``.
+    """
+
+    axis: str
+    kind: str
+    index: int
 
 
 @dataclass(frozen=True)
@@ -57,6 +76,14 @@ class Case:
     sha256: str = ""
     extras: dict = field(default_factory=dict)
     material: dict = field(default_factory=dict)
+    #: input table key path (``"restraint[2]"``, ``"segment[1]"``, ...) -> the model objects it became
+    origins: Mapping[str, tuple[TableRef, ...]] = field(default_factory=dict)
+    #: the case document as parsed (plain TOML data, read-only view) for rebuilding with changed values
+    document: Mapping[str, Any] = field(default_factory=lambda: MappingProxyType({}))
+
+    def model_objects(self, table: str) -> tuple[tuple[str, Any], ...]:
+        """(axis, model object) pairs an input table became, e.g. ``model_objects("restraint[1]")``."""
+        return tuple((r.axis, getattr(self.column(r.axis), r.kind)[r.index]) for r in self.origins.get(table, ()))
 
     def column(self, axis: str) -> Column:
         for a, col in self.planes:

@@ -22,6 +22,7 @@ from __future__ import annotations
 
 import math
 from dataclasses import dataclass, replace
+
 from ..errors import ModelError
 
 __all__ = [
@@ -43,7 +44,7 @@ RIGID = math.inf
 STATION_TOL = 1e-9
 
 
-def _positive(field_name: str, value: float, unit: str, allow_none: bool = False) -> None:
+def _positive(field_name: str, value: float | None, unit: str, allow_none: bool = False) -> None:
     if value is None and allow_none:
         return
     if not isinstance(value, (int, float)) or isinstance(value, bool):
@@ -118,7 +119,7 @@ class Segment:
 
     def inertia_at(self, s):
         """Second moment of area at local heights ``s`` (0 at the segment bottom) [m^4]."""
-        if not self.tapered:
+        if self.I_top is None or not self.tapered:
             return self.I + 0.0 * s
         n = self.taper_exponent
         t = s / self.length
@@ -386,7 +387,7 @@ class Column:
         H = self.height
         segs = []
         for s in reversed(self.segments):
-            if s.tapered:
+            if s.I_top is not None and s.tapered:
                 segs.append(replace(s, I=s.I_top, I_top=s.I))
             else:
                 segs.append(s)

@@ -48,7 +48,8 @@ or each restrained interval (``"between-restraints"``).
 from __future__ import annotations
 
 import math
-from dataclasses import dataclass
+from dataclasses import dataclass, field
+from typing import cast
 
 import numpy as np
 
@@ -56,7 +57,8 @@ from ..errors import ModelError
 from .column import STATION_TOL, Column
 
 __all__ = [
-    "ANALYSES",
+    "IMPERFECT_ANALYSIS_KINDS",
+    "PATH_METHODS",
     "BOW_SHAPES",
     "Imperfection",
     "LateralPointLoad",
@@ -65,11 +67,20 @@ __all__ = [
     "LateralActions",
     "SegmentSection",
     "bow_pieces",
+    "LateralSpec",
+    "ImperfectionSpec",
 ]
 
 BOW_SHAPES = ("half-sine", "half-sine-per-segment", "between-restraints", "mode", "offsets")
-#: Analyses of an imperfect column.
-ANALYSES = ("second-order", "nonlinear", "both")
+#: The kinds of imperfect-column analysis: second-order elastic, nonlinear (fibre path), or both.
+IMPERFECT_ANALYSIS_KINDS = ("second-order", "nonlinear", "both")
+#: Path-following methods of the nonlinear analysis.
+PATH_METHODS = ("arc-length", "load", "displacement")
+#: Defaults of ``[imperfection]``: arc-length steps, path tolerance, fibres across a section, least elements.
+DEFAULT_STEPS = 200
+DEFAULT_PATH_TOL = 1e-8
+DEFAULT_FIBRES = 40
+DEFAULT_ELEMENTS = 16
 
 
 def _finite(field: str, value, unit: str) -> float:
@@ -140,7 +151,7 @@ class Imperfection:
         """Amplitude of a piece of the given reference length [m] -> [m]."""
         if self.shape == "offsets":
             return max(abs(o) for _, o in self.offsets)
-        return float(self.amplitude) if self.amplitude is not None else length / float(self.ratio)
+        return float(self.amplitude) if self.amplitude is not None else length / float(cast(float, self.ratio))
 
     @property
     def is_zero(self) -> bool:
@@ -398,3 +409,49 @@ def offsets_interpolant(imp: Imperfection):
         return w, s
 
     return at
+
+
+# ---------------------------------------------------------------------------
+# what a case file declares (parsed by fea.io.imperfect_input)
+
+
+@dataclass(frozen=True)
+class LateralSpec:
+    """Lateral actions of a case per plane label ("major", "minor" or "" for every plane)."""
+
+    point: tuple[tuple[str, LateralPointLoad], ...] = ()
+    distributed: tuple[tuple[str, LateralDistributedLoad], ...] = ()
+    moments: tuple[tuple[str, AppliedMoment], ...] = ()
+
+    def for_axis(self, axis: str) -> LateralActions:
+        def pick(items):
+            return tuple(a for ax, a in items if ax in ("", axis))
+
+        return LateralActions(point=pick(self.point), distributed=pick(self.distributed), moments=pick(self.moments))
+
+    def merged(self, other: "LateralSpec") -> "LateralSpec":
+        return LateralSpec(self.point + other.point, self.distributed + other.distributed,
+                           self.moments + other.moments)
+
+    @property
+    def empty(self) -> bool:
+        return not (self.point or self.distributed or self.moments)
+
+
+@dataclass(frozen=True)
+class ImperfectionSpec:
+    """What ``[imperfection]`` says, in SI (``analysis`` one of :data:`IMPERFECT_ANALYSIS_KINDS`)."""
+
+    imperfection: Imperfection
+    axis: str = "both"
+    residual_stress: float = 0.0
+    hardening: float = 0.0
+    analysis: str = "both"
+    analysis_given: bool = False
+    steps: int = DEFAULT_STEPS
+    tolerance: float = DEFAULT_PATH_TOL
+    fibres: int = DEFAULT_FIBRES
+    elements: int = DEFAULT_ELEMENTS
+    method: str = "arc-length"
+    W: dict = field(default_factory=dict)
+    loads: LateralSpec = field(default_factory=LateralSpec)

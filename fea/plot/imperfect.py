@@ -18,11 +18,14 @@ returns a :class:`matplotlib.figure.Figure`; units are given as
 from __future__ import annotations
 
 import math
+from typing import TYPE_CHECKING
 
 import numpy as np
-from matplotlib.figure import Figure
 
-from ..solve.imperfect import ImperfectResult
+if TYPE_CHECKING:
+    from matplotlib.figure import Figure
+
+    from ..solve.imperfect import ImperfectResult
 
 __all__ = ["plot_path", "plot_diagrams", "plot_comparison"]
 
@@ -31,6 +34,12 @@ C_NL = "#1f5fa8"
 C_SO = "#c4572a"
 C_CR = "#6b6b6b"
 C_YIELD = "#d9a400"
+
+
+def _new_figure(size: tuple[float, float]) -> Figure:
+    from matplotlib.figure import Figure
+
+    return Figure(figsize=size, constrained_layout=True)
 
 
 def _title(r: ImperfectResult, what: str) -> str:
@@ -46,7 +55,7 @@ def plot_path(r: ImperfectResult, *, length_unit=("mm", 1e-3), fig: Figure | Non
     length_unit : (label, metres per unit)
     fig : an existing figure to draw into (a new one by default)
     """
-    fig = fig or Figure(figsize=(6.4, 4.6), constrained_layout=True)
+    fig = fig or _new_figure((6.4, 4.6))
     ax = fig.add_subplot()
     lu, ls = length_unit
     nl, so = r.nonlinear, r.second_order
@@ -116,7 +125,7 @@ def plot_diagrams(r: ImperfectResult, load_factor: float | None = None, *, lengt
         load_factor = 1.0 if np.any(np.abs(so.load_factors - 1.0) < 1e-12) else float(so.load_factors[-1])
     k = so.at(load_factor)
     lam = so.load_factors[k]
-    fig = fig or Figure(figsize=(9.0, 5.2), constrained_layout=True)
+    fig = fig or _new_figure((9.0, 5.2))
     axs = fig.subplots(1, 3, sharey=True)
     H = so.heights / ls
     he = so.end_heights / ls
@@ -172,7 +181,7 @@ def plot_comparison(r: ImperfectResult, segment: int | None = None, *, fig: Figu
              ("Perry-Robertson\nfirst yield", c.perry_load_factor, C_YIELD),
              ("first yield\n(this tool)", first, C_SO),
              ("ultimate\n(this tool)", r.limit_load_factor, C_NL)]
-    fig = fig or Figure(figsize=(7.4, 4.2), constrained_layout=True)
+    fig = fig or _new_figure((7.4, 4.2))
     ax = fig.add_subplot()
     for i, (name, v, col) in enumerate(items):
         if v is None or not math.isfinite(v):

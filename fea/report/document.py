@@ -10,10 +10,11 @@ are the report's own prose and carry no numbers.
 Sources
 -------
 ``json:a/b/0/c``
-    a value of the JSON result dict (:func:`fea.io.export.result_dict`),
-    keys and list indices joined by ``/``.
+    the path of the value in the JSON result of the run (:func:`fea.pipeline.result_json`),
+    keys and list indices joined by ``/``; the report reads the value from the result
+    object the JSON is written from.
 ``case:planes/0/1/restraints/2/lateral``
-    an attribute path into the :class:`~fea.io.case.Case` (inputs as read).
+    an attribute path into the :class:`~fea.model.case.Case` (inputs as read).
 ``run:warnings/0``
     a warning raised while the case was run.
 ``report:date``

@@ -34,12 +34,13 @@ functions are pure (arrays in, arrays out, SI units).
 from __future__ import annotations
 
 from dataclasses import dataclass
+from functools import partial
 
 import numpy as np
 
 from fea.errors import ModelError
-from fea.solve.fibre import (ElasticSection, FibreSection, FibreState, initial_state,
-                             section_response)
+from fea.solve.fibre import ElasticSection, FibreSection, FibreState, initial_state, section_response
+from fea.util.numbers import readonly
 
 __all__ = ["BeamModel", "Assembly", "gauss_points", "make_model", "local_deformations", "assemble"]
 
@@ -120,13 +121,7 @@ class BeamModel:
 
     def initial_state(self) -> FibreState | None:
         """Virgin fibre history (None for elastic sections)."""
-        return initial_state(self.section, self.n_ip) if self.is_fibre else None
-
-
-def _ro(a: np.ndarray) -> np.ndarray:
-    a = np.array(a)
-    a.setflags(write=False)
-    return a
+        return initial_state(self.section, self.n_ip) if isinstance(self.section, FibreSection) else None
 
 
 def make_model(xy0, conn, section, n_ip: int = 3) -> BeamModel:
@@ -179,7 +174,8 @@ def make_model(xy0, conn, section, n_ip: int = 3) -> BeamModel:
     if not isinstance(section, (ElasticSection, FibreSection)):
         raise ModelError("section", f"is a {type(section).__name__}, expected an ElasticSection or FibreSection")
     if section.n_el != c.shape[0]:
-        raise ModelError("section", f"describes {section.n_el} elements, expected {c.shape[0]} (one per element of conn)")
+        raise ModelError("section", f"describes {section.n_el} elements, expected {c.shape[0]} (one per element of "
+                                    "conn)")
     xi, w = gauss_points(n_ip)
     d = xy[c[:, 1]] - xy[c[:, 0]]
     L0 = np.hypot(d[:, 0], d[:, 1])
@@ -188,8 +184,9 @@ def make_model(xy0, conn, section, n_ip: int = 3) -> BeamModel:
         e = int(np.argmin(L0))
         raise ModelError(f"conn[{e}]", f"has length {L0[e]!r} m, expected a positive element length")
     edofs = (3 * c[:, :, None] + np.arange(3)[None, None, :]).reshape(-1, 6)
-    return BeamModel(xy0=_ro(xy), conn=_ro(c), section=section, n_ip=int(n_ip), xi=_ro(xi), w=_ro(w),
-                     L0=_ro(L0), c0=_ro(d[:, 0] / L0), s0=_ro(d[:, 1] / L0), edofs=_ro(edofs))
+    ro = partial(readonly, dtype=None)  # keeps the integer arrays integer
+    return BeamModel(xy0=ro(xy), conn=ro(c), section=section, n_ip=int(n_ip), xi=ro(xi), w=ro(w),
+                     L0=ro(L0), c0=ro(d[:, 0] / L0), s0=ro(d[:, 1] / L0), edofs=ro(edofs))
 
 
 def local_deformations(model: BeamModel, u: np.ndarray):
@@ -314,6 +311,7 @@ def assemble(model: BeamModel, u: np.ndarray, state: FibreState | None, *, tange
     fg = np.einsum("eij,ei->ej", B, fl)
     n_dof = model.n_dof
     f_int = np.bincount(model.edofs.ravel(), weights=fg.ravel(), minlength=n_dof)
+    K: np.ndarray
     if tangent:
         Kl = np.einsum("ek,ekai,ekab,ekbj->eij", wl, b, sec.D, b)
         Kl += np.einsum("ek,ek->e", wl, sec.N)[:, None, None] * _G[None]

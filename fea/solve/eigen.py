@@ -26,6 +26,7 @@ import numpy as np
 
 from ..assemble import Assembled, assemble
 from ..errors import ModelError, SolverError
+from ..formulas import effective_length_factor
 from ..mesh import Mesh, build_mesh
 from ..model import Column
 from ..results import K_AXIAL_RATIO_MIN, K_ENERGY_SHARE_MIN, BucklingResult, SegmentBuckling
@@ -333,7 +334,7 @@ def _package(column, mesh, asm, lam, vec, solver, history, est, tol, converged, 
         Ncr = n_cr_all[i]
         I_ref = s.I_ref
         if Ncr > 0:
-            K = math.pi / s.length * math.sqrt(s.E * I_ref / Ncr)
+            K = float(effective_length_factor(s.length, s.E * I_ref, Ncr))
         else:
             K = None
         note = ""

@@ -279,7 +279,8 @@ def make_fibre_section(y, area, E, fy, n_el: int, *, E_t=0.0, sigma_r=None) -> F
         over = np.abs(sr) > fya[:, None] * (1.0 + 1e-12)
         if np.any(over):
             e, f = np.argwhere(over)[0]
-            raise ModelError("sigma_r", f"fibre {f} of element {e} has {sr[e, f]!r} Pa, expected |sigma_r| <= fy = {fya[e]!r} Pa")
+            raise ModelError("sigma_r", f"fibre {f} of element {e} has {sr[e, f]!r} Pa, expected |sigma_r| <= fy = "
+                                        f"{fya[e]!r} Pa")
         force = np.sum(sr * aa, axis=1)
         moment = np.sum(sr * aa * ya, axis=1)
         fscale = fya * np.sum(aa, axis=1)
@@ -288,8 +289,9 @@ def make_fibre_section(y, area, E, fy, n_el: int, *, E_t=0.0, sigma_r=None) -> F
         badm = np.abs(moment) > RESIDUAL_EQUILIBRIUM_TOL * mscale
         if np.any(badf | badm):
             e = int(np.argmax(badf | badm))
-            raise ModelError("sigma_r", f"of element {e} has net force {force[e]:.6g} N and net moment {moment[e]:.6g} N m, "
-                                        f"expected a self-equilibrating pattern (both zero within {RESIDUAL_EQUILIBRIUM_TOL:g} relative)")
+            raise ModelError("sigma_r", f"of element {e} has net force {force[e]:.6g} N and net moment "
+                                        f"{moment[e]:.6g} N m, expected a self-equilibrating pattern (both zero "
+                                        f"within {RESIDUAL_EQUILIBRIUM_TOL:g} relative)")
     return FibreSection(y=_frozen(ya), area=_frozen(aa), sigma_r=_frozen(sr), E=_frozen(Ea),
                         fy=_frozen(fya), E_t=_frozen(Eta))
 
@@ -381,6 +383,7 @@ def section_response(section, eps0: np.ndarray, kappa: np.ndarray, state: FibreS
         D[..., 0, 0] = EA
         D[..., 1, 1] = EI
         return SectionResponse(N=N, M=M, D=D)
+    assert state is not None, "a fibre section needs its committed history"
     y = section.y[:, None, :]
     A = section.area[:, None, :]
     E = section.E[:, None, None]

@@ -35,19 +35,16 @@ from __future__ import annotations
 
 import logging
 import math
-from dataclasses import dataclass, field, replace
+from dataclasses import dataclass, field
 
 import numpy as np
 import scipy.linalg as sla
 
-from ..assemble import assemble
-from ..elements import GAUSS_W, GAUSS_XI, elastic_stiffness, foundation_stiffness, geometric_stiffness, \
-    shape_functions
 from ..errors import ModelError
-from ..model.imperfection import Imperfection, LateralActions, SegmentSection, bow_pieces, offsets_interpolant, \
-    piece_value
-from ..mesh import Mesh, build_mesh
-from ..model import STATION_TOL, Column, Restraint
+from ..model import Column
+from ..model.imperfection import Imperfection, LateralActions, SegmentSection
+from ..util.numbers import readonly
+from .bowed_mesh import Discrete, discretise, segment_of_elements
 from .eigen import _diagnose_mechanism, solve_assembled
 
 __all__ = ["SecondOrderResult", "second_order", "DEFAULT_TOL", "Discrete", "discretise"]
@@ -60,12 +57,6 @@ MAX_LEVEL = 7
 ORDER = 4
 #: Points of the load-factor scan for the first yield.
 N_SCAN = 48
-
-
-def _ro(a) -> np.ndarray:
-    a = np.array(a, dtype=float)
-    a.setflags(write=False)
-    return a
 
 
 @dataclass(frozen=True)
@@ -142,170 +133,6 @@ class SecondOrderResult:
         return int(np.argmin(np.abs(self.load_factors - load_factor)))
 
 
-# ---------------------------------------------------------------------------
-# discretisation
-
-
-@dataclass(frozen=True)
-class Discrete:
-    """One mesh of the column with everything the second-order solution needs."""
-
-    column: Column
-    mesh: Mesh
-    asm: object            # the Assembled matrices of this mesh
-    free: np.ndarray
-    K: np.ndarray          # reduced, elastic + springs + foundation - permanent geometric
-    K0: np.ndarray         # reduced, no geometric terms
-    G: np.ndarray          # reduced, variable geometric at lam = 1
-    k_el: np.ndarray       # (n_el, 4, 4) elastic + foundation element matrices
-    kg_var: np.ndarray     # (n_el, 4, 4)
-    kg_perm: np.ndarray    # (n_el, 4, 4)
-    idx: np.ndarray        # (n_el, 4) element dofs in the full numbering
-    w0e: np.ndarray        # (n_el, 4) element bow dofs (values and slopes)
-    w0n: np.ndarray        # (n_nodes,) bow at the nodes
-    fq_var: np.ndarray     # (n_el, 4) consistent element lateral loads, variable
-    fq_perm: np.ndarray    # (n_el, 4) permanent
-    f0: np.ndarray         # (n_full,) load at lam = 0 (permanent actions and bow terms)
-    f1: np.ndarray         # (n_full,) load per unit lam
-    f0_lat: np.ndarray     # (n_full,) the lateral actions alone (no bow terms), permanent
-    f1_lat: np.ndarray     # (n_full,) the same, per unit lam
-    N_end_var: np.ndarray  # (n_el, 2) axial compression at the element ends per unit lam
-    N_end_perm: np.ndarray
-    lean_var: np.ndarray   # (n_nodes,)
-    lean_perm: np.ndarray
-
-
-def _with_stations(column: Column, xs) -> Column:
-    """The column with zero-stiffness restraints added so that ``xs`` are stations (nodes)."""
-    H = column.height
-    tol = STATION_TOL * H
-    have = column.stations()
-    extra = []
-    for x in xs:
-        x = min(max(float(x), 0.0), H)
-        if all(abs(x - s) > tol for s in have) and all(abs(x - e) > tol for e in extra):
-            extra.append(x)
-    if not extra:
-        return column
-    return replace(column, restraints=column.restraints + tuple(Restraint(x, 0.0, 0.0) for x in extra))
-
-
-def _element_bow(column: Column, imp: Imperfection | None, mesh: Mesh, mode_full: np.ndarray | None):
-    n_el = mesh.n_el
-    x0, x1 = mesh.x[:-1], mesh.x[1:]
-    w0e = np.zeros((n_el, 4))
-    if imp is None or imp.is_zero:
-        return w0e
-    if imp.shape == "mode":
-        idx = 2 * np.arange(n_el)[:, None] + np.arange(4)[None, :]
-        m = mode_full[idx]
-        return imp.piece_amplitude(column.height) * m
-    if imp.shape == "offsets":
-        f = offsets_interpolant(imp)
-        v0, s0 = f(x0)
-        v1, s1 = f(x1)
-        return np.stack([v0, s0, v1, s1], axis=1)
-    mid = 0.5 * (x0 + x1)
-    for a, b, kind, amp in bow_pieces(column, imp):
-        sel = (mid > a) & (mid < b)
-        if not np.any(sel):
-            continue
-        v0, s0 = piece_value(kind, a, b, amp, x0[sel])
-        v1, s1 = piece_value(kind, a, b, amp, x1[sel])
-        w0e[sel] = np.stack([v0, s0, v1, s1], axis=1)
-    return w0e
-
-
-def first_mode(mesh: Mesh, asm) -> np.ndarray:
-    """First buckling mode on ``mesh`` in the full numbering, largest lateral value +1."""
-    lam, vec, _ = solve_assembled(asm, 1)
-    if lam.size == 0:
-        raise ModelError("imperfection.shape", "'mode' needs a buckling mode, but the variable loads cause no "
-                                               "buckling in this plane; use 'half-sine' or 'between-restraints'")
-    full = np.zeros(asm.n_full)
-    full[asm.free] = vec[:, 0]
-    w = full[0::2]
-    j = int(np.argmax(np.abs(w)))
-    return full / w[j]
-
-
-def _axial_ends(column: Column, mesh: Mesh, permanent: bool) -> np.ndarray:
-    H = column.height
-    d = 10.0 * STATION_TOL * H
-    xb = mesh.x[:-1] + d
-    xt = mesh.x[1:] - d
-    return np.stack([column.axial_force(xb, permanent=permanent), column.axial_force(xt, permanent=permanent)],
-                    axis=1)
-
-
-def discretise(column: Column, imperfection: Imperfection | None = None, actions: LateralActions | None = None,
-               level: int = 1) -> Discrete:
-    """Mesh, matrices, bow and loads of ``column`` at refinement ``level``.
-
-    Stations are added (as zero-stiffness restraints, which change nothing) at
-    the heights of the lateral actions and of measured bow offsets, so that
-    every one is a node.
-    """
-    actions = actions or LateralActions()
-    actions.check(column)
-    xs = list(actions.stations())
-    if imperfection is not None and imperfection.shape == "offsets":
-        xs += [h for h, _ in imperfection.offsets if 0 <= h <= column.height]
-    col = _with_stations(column, xs)
-    mesh = build_mesh(col, level)
-    asm = assemble(mesh)
-    n = asm.n_full
-    kb = elastic_stiffness(mesh.L, mesh.EI, mesh.phi)
-    k_el = kb + (foundation_stiffness(mesh.L, mesh.k_found, mesh.phi) if np.any(mesh.k_found) else 0.0)
-    kg_var = geometric_stiffness(mesh.L, mesh.N_var, mesh.phi)
-    kg_perm = geometric_stiffness(mesh.L, mesh.N_perm, mesh.phi)
-    idx = 2 * np.arange(mesh.n_el)[:, None] + np.arange(4)[None, :]
-
-    mode_full = None
-    if imperfection is not None and imperfection.shape == "mode" and not imperfection.is_zero:
-        mode_full = first_mode(mesh, asm)
-    w0e = _element_bow(col, imperfection, mesh, mode_full)
-    w0n = np.zeros(mesh.n_nodes)
-    w0n[:-1] = w0e[:, 0]
-    w0n[-1] = w0e[-1, 2]
-
-    # consistent lateral loads per element (4-point Gauss: exact for linear q on cubics)
-    N_sh, _ = shape_functions(GAUSS_XI, mesh.L, mesh.phi)  # (n_el, 4, 4)
-    fq = {False: np.zeros((mesh.n_el, 4)), True: np.zeros((mesh.n_el, 4))}
-    tol = STATION_TOL * col.height
-    mid = 0.5 * (mesh.x[:-1] + mesh.x[1:])
-    for d in actions.distributed:
-        inside = (mid > d.bottom - tol) & (mid < d.top + tol)
-        if not np.any(inside):
-            continue
-        q = d.q_at(mesh.x_gauss[inside])  # (m, 4)
-        wts = q * (GAUSS_W[None, :] * mesh.L[inside, None])
-        fq[d.permanent][inside] += np.einsum("eg,egi->ei", wts, N_sh[inside])
-    nodal = {False: np.zeros(n), True: np.zeros(n)}
-    for p in actions.point:
-        node = int(np.argmin(np.abs(mesh.x - p.at)))
-        nodal[p.permanent][2 * node] += p.force
-    for m in actions.moments:
-        node = int(np.argmin(np.abs(mesh.x - m.at)))
-        nodal[m.permanent][2 * node + 1] += m.moment
-
-    def scatter(fe):
-        out = np.zeros(n)
-        np.add.at(out, idx, fe)
-        return out
-
-    bow_var = scatter(np.einsum("eij,ej->ei", kg_var, w0e))
-    bow_var[0::2] += mesh.lean_var * w0n
-    bow_perm = scatter(np.einsum("eij,ej->ei", kg_perm, w0e))
-    bow_perm[0::2] += mesh.lean_perm * w0n
-    f1_lat = scatter(fq[False]) + nodal[False]
-    f0_lat = scatter(fq[True]) + nodal[True]
-    return Discrete(column=col, mesh=mesh, asm=asm, free=asm.free, K=asm.K, K0=asm.K0, G=asm.G, k_el=k_el, kg_var=kg_var,
-                    kg_perm=kg_perm, idx=idx, w0e=w0e, w0n=w0n, fq_var=fq[False], fq_perm=fq[True],
-                    f0=bow_perm + f0_lat, f1=bow_var + f1_lat, f0_lat=f0_lat, f1_lat=f1_lat, N_end_var=_axial_ends(col, mesh, False), N_end_perm=_axial_ends(col, mesh, True),
-                    lean_var=mesh.lean_var, lean_perm=mesh.lean_perm)
-
-
 def _banded(A: np.ndarray, bw: int = 3) -> np.ndarray:
     n = A.shape[0]
     ab = np.zeros((2 * bw + 1, n))
@@ -351,16 +178,9 @@ class _Solver:
         return self.d.N_end_perm + lam * self.d.N_end_var
 
 
-def _segment_of_ends(d: Discrete, column: Column) -> np.ndarray:
-    """Segment index of every element of the mesh (of the original column's segments)."""
-    joints = np.array(column.joints)
-    mid = 0.5 * (d.mesh.x[:-1] + d.mesh.x[1:])
-    return np.clip(np.searchsorted(joints, mid, side="right") - 1, 0, len(column.segments) - 1)
-
-
 class _Stress:
     def __init__(self, d: Discrete, column: Column, sections) -> None:
-        seg = _segment_of_ends(d, column)
+        seg = segment_of_elements(column, d.mesh.x)
         self.seg = seg
         self.A = np.array([sections[s].A for s in seg])[:, None]
         self.W = np.array([sections[s].W for s in seg], dtype=float)[:, None]
@@ -467,7 +287,43 @@ def second_order(column: Column, imperfection: Imperfection | None = None, actio
             raise ModelError("sections", f"expected one SegmentSection per segment ({len(column.segments)}), "
                                          f"got {len(sections)}")
     _check_stable(column, imperfection, actions, min_level)
+    d, sol, st, lam_cr, fy, history, est = _refine(column, imperfection, actions, sections, load_factors,
+                                                   min_level, tol)
+    converged = est <= tol
+    what = ("first-yield load factor, largest moment and deflection" if fy is not None
+            else "largest moment and deflection")
+    msg = (f"{what} converged: estimated relative discretisation error {est:.1e} <= {tol:.0e} "
+           f"({d.mesh.n_el} elements)" if converged else
+           f"mesh refinement stopped at level {MAX_LEVEL}: estimated relative error of the {what} {est:.1e} > "
+           f"{tol:.0e}")
+    warn = []
+    if (imperfection is None or imperfection.is_zero) and actions.empty:
+        warn.append("no bow, no lateral load and no eccentricity: a straight column stays straight up to the "
+                    "critical load in this theory")
+    if st is not None and st.fy is None:
+        warn.append("no yield strength given: first yield not computed")
+    lams = _reported_load_factors(load_factors, n_load_factors, fy, lam_cr)
+    resp = _responses(d, sol, st, lams)
+    ends = np.stack([d.mesh.x[:-1], d.mesh.x[1:]], axis=1).ravel()
+    fy_h = fy_seg = None
+    if fy is not None:
+        fy_h = float(ends[2 * fy[1] + fy[2]])
+        fy_seg = int(st.seg[fy[1]])
+    return SecondOrderResult(
+        load_factors=readonly(lams), heights=readonly(d.mesh.x), bow=readonly(d.w0n), end_heights=readonly(ends),
+        **{k: readonly(v) for k, v in resp.items()}, critical_load_factor=float(lam_cr),
+        first_yield_load_factor=None if fy is None else float(fy[0]), first_yield_height=fy_h,
+        first_yield_segment=fy_seg, n_elements=d.mesh.n_el, refinement_history=readonly([h[0] for h in history]),
+        discretisation_error=float(est), tolerance=float(tol), converged=bool(converged), message=msg, axis=axis,
+        warnings=tuple(warn))
 
+
+def _refine(column, imperfection, actions, sections, load_factors, min_level: int, tol: float):
+    """Solve on nested meshes until the Richardson estimate of the monitored quantities is below ``tol``.
+
+    Returns (discrete model, solver, stresses, critical load factor, first yield, history, error estimate) of the
+    finest mesh solved.
+    """
     history: list[np.ndarray] = []
     diffs: list[float] = []
     est = math.inf
@@ -476,7 +332,6 @@ def second_order(column: Column, imperfection: Imperfection | None = None, actio
         lam_req = np.atleast_1d(np.asarray(load_factors, dtype=float))
         if lam_req.size and np.all(np.isfinite(lam_req)):
             lam_check = float(np.max(np.abs(lam_req)))
-    level = min_level
     for level in range(min_level, MAX_LEVEL + 1):
         d, sol, st, lam_cr, fy, q, lam_check = _analyse(column, imperfection, actions, sections, level, lam_check)
         history.append(q)
@@ -491,20 +346,11 @@ def second_order(column: Column, imperfection: Imperfection | None = None, actio
                 est = 0.0
             if est <= tol:
                 break
-    converged = est <= tol
-    what = ("first-yield load factor, largest moment and deflection" if fy is not None
-            else "largest moment and deflection")
-    msg = (f"{what} converged: estimated relative discretisation error {est:.1e} <= {tol:.0e} "
-           f"({d.mesh.n_el} elements)" if converged else
-           f"mesh refinement stopped at level {MAX_LEVEL}: estimated relative error of the {what} {est:.1e} > {tol:.0e}")
-    warn = []
-    if (imperfection is None or imperfection.is_zero) and actions.empty:
-        warn.append("no bow, no lateral load and no eccentricity: a straight column stays straight up to the "
-                    "critical load in this theory")
-    if st is not None and st.fy is None:
-        warn.append("no yield strength given: first yield not computed")
+    return d, sol, st, lam_cr, fy, history, est
 
-    # load factors to report
+
+def _reported_load_factors(load_factors, n_load_factors: int, fy, lam_cr: float) -> np.ndarray:
+    """The requested load factors (checked), or ``n_load_factors`` from 0 to the first yield or 0.9 lam_cr."""
     if load_factors is None:
         if fy is not None and fy[0] > 0:
             end = fy[0]
@@ -515,14 +361,18 @@ def second_order(column: Column, imperfection: Imperfection | None = None, actio
         lams = np.linspace(0.0, end, int(n_load_factors))
         if 1.0 < lam_cr and 1.0 not in lams:
             lams = np.sort(np.r_[lams, 1.0])
-    else:
-        lams = np.atleast_1d(np.asarray(load_factors, dtype=float))
-        if lams.ndim != 1 or not np.all(np.isfinite(lams)):
-            raise ModelError("load_factors", "expected a 1-D array of finite load factors")
-        if np.any(lams >= lam_cr):
-            raise ModelError("load_factors", f"{lams.max():.6g} is at or above the critical load factor "
-                                             f"{lam_cr:.6g}: the small-deflection theory has no answer there")
+        return lams
+    lams = np.atleast_1d(np.asarray(load_factors, dtype=float))
+    if lams.ndim != 1 or not np.all(np.isfinite(lams)):
+        raise ModelError("load_factors", "expected a 1-D array of finite load factors")
+    if np.any(lams >= lam_cr):
+        raise ModelError("load_factors", f"{lams.max():.6g} is at or above the critical load factor "
+                                         f"{lam_cr:.6g}: the small-deflection theory has no answer there")
+    return lams
 
+
+def _responses(d: Discrete, sol: _Solver, st: _Stress | None, lams: np.ndarray) -> dict[str, list]:
+    """Deflections, moments, axial forces, stresses and amplifications at every load factor (result fields)."""
     n_el = d.mesh.n_el
     defl, mom, ax, strs, mom1, ad, am = [], [], [], [], [], [], []
     for lam in lams:
@@ -540,19 +390,8 @@ def second_order(column: Column, imperfection: Imperfection | None = None, actio
         strs.append(st.stress(N, M).ravel() if st is not None else np.full(2 * n_el, np.nan))
         ad.append(_ratio(np.abs(w).max(), np.abs(w1).max()))
         am.append(_ratio(np.abs(M).max(), np.abs(M1).max()))
-    ends = np.stack([d.mesh.x[:-1], d.mesh.x[1:]], axis=1).ravel()
-    fy_h = fy_seg = None
-    if fy is not None:
-        fy_h = float(ends[2 * fy[1] + fy[2]])
-        fy_seg = int(st.seg[fy[1]])
-    return SecondOrderResult(
-        load_factors=_ro(lams), heights=_ro(d.mesh.x), bow=_ro(d.w0n), deflection=_ro(defl), end_heights=_ro(ends),
-        moment=_ro(mom), axial_force=_ro(ax), stress=_ro(strs), first_order_moment=_ro(mom1),
-        deflection_amplification=_ro(ad), moment_amplification=_ro(am), critical_load_factor=float(lam_cr),
-        first_yield_load_factor=None if fy is None else float(fy[0]), first_yield_height=fy_h,
-        first_yield_segment=fy_seg, n_elements=n_el, refinement_history=_ro([h[0] for h in history]),
-        discretisation_error=float(est), tolerance=float(tol), converged=bool(converged), message=msg, axis=axis,
-        warnings=tuple(warn))
+    return dict(deflection=defl, moment=mom, axial_force=ax, stress=strs, first_order_moment=mom1,
+                deflection_amplification=ad, moment_amplification=am)
 
 
 def _ratio(a: float, b: float) -> float:

@@ -3,9 +3,12 @@
 Modules
 -------
 :mod:`fea.study.paths`
-    Case-file key paths (``restraint[1].rotation``) and a small TOML writer.
+    Case-file key paths (``restraint[1].rotation``): read and set one input of a case document.
 :mod:`fea.study.target`
-    A case with its document; which plane restraint a [[restraint]] table drives.
+    A parsed case as the studies see it: which plane restraint a [[restraint]] table drives;
+    springs changed on the case, other inputs through its document and a rebuild function.
+:mod:`fea.study.spec`
+    The settings a case's ``[study]`` table gives (read by :mod:`fea.io.study_input`).
 :mod:`fea.study.spring_set`
     :class:`SpringModel`: load factors with several springs varying, on one mesh.
 :mod:`fea.study.sweep`
@@ -16,8 +19,11 @@ Modules
     d lam / d k of every spring from the mode shape, checked by finite differences.
 :mod:`fea.study.bounds`
     Load factor and K bounds over a box of uncertain springs (corners bound it).
-:mod:`fea.study.commands`
-    The ``sweep``, ``brace``, ``sensitivity`` and ``bounds`` subcommands and the [study] table.
+:mod:`fea.study.run`
+    The kernels applied to the planes and [[restraint]] tables of a case.
 
-The kernels here use SI floats and never print; the commands module does the I/O.
+The engines here change a parsed case, never TOML text, use SI floats and never
+print.  The subcommands are :mod:`fea.cli.sweep`, :mod:`fea.cli.brace`,
+:mod:`fea.cli.sensitivity` and :mod:`fea.cli.bounds`; their JSON, CSV and
+summaries are built by :mod:`fea.io.study_output`.
 """

@@ -177,62 +177,23 @@ def brace_stiffness(column: Column, restraints, kind: str = "lateral", fraction:
     lam_r = lam(math.inf)
     lam_0 = lam(0.0)
     lam_given = model.load_factor(np.array(given))
-    target = (1.0 - eps) * lam_r
     seg_ei = max(s.E * s.I_ref for s in column.segments)
     H = column.height
     scale = seg_ei / H**3 if kind == "lateral" else seg_ei / H
-
-    def search(goal: float) -> float | None:
-        if lam_0 >= goal:
-            return 0.0
-        lo, hi = scale * 1e-6, scale
-        while lam(lo) >= goal:
-            lo /= 1e3
-            if lo < scale * 1e-30:
-                return 0.0
-        steps = 0
-        while lam(hi) < goal:
-            lo, hi = hi, hi * 10.0
-            steps += 1
-            if steps > 24:
-                return None
-        a, b = math.log(lo), math.log(hi)
-        for _ in range(_BISECT):
-            mid = 0.5 * (a + b)
-            if lam(math.exp(mid)) >= goal:
-                b = mid
-            else:
-                a = mid
-        return math.exp(b)
-
-    k_th = search(target)
+    k_th = _least_stiffness(lam, lam_0, (1.0 - eps) * lam_r, scale)
     if fraction >= 1.0 - eps:
         k_f = k_th
     elif lam_0 >= fraction * lam_r:
         k_f = 0.0
     else:
-        hi = k_th if k_th else scale
-        while lam(hi) < fraction * lam_r:
-            hi *= 10
-        lo = hi
-        while lam(lo) >= fraction * lam_r:
-            lo /= 10
-        from scipy.optimize import brentq  # imported here: keeps start-up fast
-
-        k_f = math.exp(brentq(lambda t: lam(math.exp(t)) - fraction * lam_r, math.log(lo), math.log(hi),
-                              xtol=1e-13, rtol=1e-13))
+        k_f = _fraction_stiffness(lam, fraction * lam_r, k_th if k_th else scale)
 
     # Winter and AISC figures
-    tolx = 1e-9 * H
     stations = tuple(column.restraints[i].at for i in restraints)
-    Nv = max(float(column.axial_force(np.array([max(s - tolx, 0.0)]), permanent=False)[0]) for s in stations)
-    Np = max(float(column.axial_force(np.array([max(s - tolx, 0.0)]), permanent=True)[0]) for s in stations)
-    P_rigid = Np + lam_r * Nv
-    P_design = Np + Nv
+    P_rigid, P_design = _brace_axial_forces(column, stations, lam_r)
     lb, even = _supports(column, restraints)
     c = winter_coefficient(len(restraints))
-    lb_, _ = _supports(column, restraints)
-    marks = [v for v in (k_th, k_f, (2.0 * P_rigid / lb_) if lb_ > 0 else None) if v and math.isfinite(v)]
+    marks = [v for v in (k_th, k_f, (2.0 * P_rigid / lb) if lb > 0 else None) if v and math.isfinite(v)]
     if not marks:
         marks = [scale]
     ks = np.logspace(math.log10(min(marks)) - 1.5, math.log10(max(marks)) + 1.0, 121)
@@ -247,6 +208,54 @@ def brace_stiffness(column: Column, restraints, kind: str = "lateral", fraction:
         aisc_strength=AISC_STRENGTH_RATIO * P_design,
         aisc_stiffness_at_rigid=AISC_STIFFNESS_COEFF * P_rigid / (AISC_PHI * lb) if lb > 0 else math.nan,
         curve_k=ks, curve_load_factor=curve, level=level, model=model)
+
+
+def _least_stiffness(lam, lam_0: float, goal: float, scale: float) -> float | None:
+    """Least ``k`` with ``lam(k) >= goal``: bracketed from ``scale``, then bisection on log k.
+
+    0 when the braces are not needed, None when no finite stiffness reaches ``goal``.
+    """
+    if lam_0 >= goal:
+        return 0.0
+    lo, hi = scale * 1e-6, scale
+    while lam(lo) >= goal:
+        lo /= 1e3
+        if lo < scale * 1e-30:
+            return 0.0
+    steps = 0
+    while lam(hi) < goal:
+        lo, hi = hi, hi * 10.0
+        steps += 1
+        if steps > 24:
+            return None
+    a, b = math.log(lo), math.log(hi)
+    for _ in range(_BISECT):
+        mid = 0.5 * (a + b)
+        if lam(math.exp(mid)) >= goal:
+            b = mid
+        else:
+            a = mid
+    return math.exp(b)
+
+
+def _fraction_stiffness(lam, goal: float, hi: float) -> float:
+    """The ``k`` where ``lam(k) = goal`` (Brent's method on log k), bracketed from ``hi`` by decades."""
+    while lam(hi) < goal:
+        hi *= 10
+    lo = hi
+    while lam(lo) >= goal:
+        lo /= 10
+    from scipy.optimize import brentq  # imported here: keeps start-up fast
+
+    return math.exp(brentq(lambda t: lam(math.exp(t)) - goal, math.log(lo), math.log(hi), xtol=1e-13, rtol=1e-13))
+
+
+def _brace_axial_forces(column: Column, stations: tuple[float, ...], lam_r: float) -> tuple[float, float]:
+    """Largest compression at the braces at the rigid-brace critical state (Winter's P) and at load factor 1."""
+    tolx = 1e-9 * column.height
+    Nv = max(float(column.axial_force(np.array([max(s - tolx, 0.0)]), permanent=False)[0]) for s in stations)
+    Np = max(float(column.axial_force(np.array([max(s - tolx, 0.0)]), permanent=True)[0]) for s in stations)
+    return Np + lam_r * Nv, Np + Nv
 
 
 @dataclass(frozen=True)

@@ -3,26 +3,26 @@
 A key path names a value the way an engineer reads the case file, arrays of
 tables counted from 1: ``restraint[1].rotation``, ``segment[2].length``,
 ``load[1].axial``, ``segment[1].I_minor``, ``restraint[2].beam[1].span``,
-``material.E``.  The document is the plain dictionary ``tomllib`` returns; a
-changed document is turned back into TOML text by :func:`dump_toml` and parsed
-again by :func:`fea.io.case.parse_case`, so every value passes the same checks
-as a hand-written case file.
+``material.E``.  The document is the plain data of a parsed case
+(:attr:`fea.model.case.Case.document`); :func:`with_values` returns a changed
+copy, which the caller's rebuild function (the case-file parser) turns into a
+new case, so every value passes the same checks as a hand-written case file.
 
-Pure: dictionaries and strings in and out, no files.
+Pure: plain data and strings in and out, no files.
 """
 
 from __future__ import annotations
 
 import copy
-import json
 import math
 import re
+from collections.abc import Mapping
 from dataclasses import dataclass
 
 from ..errors import CaseError
 from ..units import DIMENSIONS, parse
 
-__all__ = ["KeyPath", "parse_key", "dump_toml", "with_values", "format_si", "SPRING_KINDS"]
+__all__ = ["KeyPath", "parse_key", "with_values", "format_si", "SPRING_KINDS"]
 
 #: Leaf key -> physical quantity (a key of :data:`fea.units.DIMENSIONS`), per table name.
 _LEAVES: dict[str, dict[str, str]] = {
@@ -90,7 +90,7 @@ class KeyPath:
             return 0.0 if value.strip().lower() == "free" else math.inf
         return parse(where, value, self.dimension)
 
-    def get(self, doc: dict) -> object:
+    def get(self, doc: Mapping) -> object:
         """The value as written in the document (raises CaseError if absent)."""
         table = _walk(doc, self)
         if self.leaf not in table:
@@ -145,10 +145,10 @@ def parse_key(text: str) -> KeyPath:
     return KeyPath(text=text.strip(), parts=tuple(parts), dimension=_LEAVES[owner][leaf])
 
 
-def _walk(doc: dict, key: KeyPath) -> dict:
+def _walk(doc: Mapping, key: KeyPath) -> dict:
     node: object = doc
     for name, idx in key.parts[:-1]:
-        if not isinstance(node, dict) or name not in node:
+        if not isinstance(node, Mapping) or name not in node:
             raise CaseError(key.text, f"the case file has no [{name}] table")
         node = node[name]
         if idx is not None:
@@ -171,63 +171,9 @@ def format_si(value: float, unit: str, spring: bool = False) -> str:
     return f"{float(value)!r} {unit}"
 
 
-def with_values(doc: dict, keys: tuple[KeyPath, ...], values: tuple[float, ...]) -> dict:
-    """A deep copy of ``doc`` with each key set to its SI value (the [study] table left out)."""
+def with_values(doc: Mapping, keys: tuple[KeyPath, ...], values: tuple[float, ...]) -> dict:
+    """A deep copy of the case document ``doc`` with each key set to its SI value (the [study] table left out)."""
     out = copy.deepcopy({k: v for k, v in doc.items() if k != "study"})
     for key, v in zip(keys, values):
         key.set(out, v)
     return out
-
-
-# ---------------------------------------------------------------------------
-# a small TOML writer for case documents (tables, arrays of tables, scalars, arrays of scalars)
-
-
-def _scalar(v: object) -> str:
-    if isinstance(v, bool):
-        return "true" if v else "false"
-    if isinstance(v, int):
-        return str(v)
-    if isinstance(v, float):
-        if math.isnan(v):
-            return "nan"
-        if math.isinf(v):
-            return "inf" if v > 0 else "-inf"
-        return repr(v)
-    if isinstance(v, str):
-        return json.dumps(v, ensure_ascii=False)  # a JSON string is a valid TOML basic string
-    if isinstance(v, list) and all(not isinstance(x, dict) for x in v):
-        return "[" + ", ".join(_scalar(x) for x in v) + "]"
-    if isinstance(v, dict):  # inline table
-        return "{" + ", ".join(f"{_name(k)} = {_scalar(x)}" for k, x in v.items()) + "}"
-    raise TypeError(f"cannot write {type(v).__name__} to TOML")
-
-
-def _name(k: str) -> str:
-    return k if re.fullmatch(r"[A-Za-z0-9_-]+", k) else json.dumps(k)
-
-
-def _is_table_array(v: object) -> bool:
-    return isinstance(v, list) and bool(v) and all(isinstance(x, dict) for x in v)
-
-
-def _emit(table: dict, prefix: str, out: list[str]) -> None:
-    for k, v in table.items():
-        if not isinstance(v, dict) and not _is_table_array(v):
-            out.append(f"{_name(k)} = {_scalar(v)}")
-    for k, v in table.items():
-        path = f"{prefix}.{_name(k)}" if prefix else _name(k)
-        if isinstance(v, dict):
-            out.append(f"\n[{path}]")
-            _emit(v, path, out)
-        elif _is_table_array(v):
-            for item in v:
-                out.append(f"\n[[{path}]]")
-                _emit(item, path, out)
-
-
-def dump_toml(doc: dict) -> str:
-    """TOML text of a case document (``tomllib.loads(dump_toml(d)) == d``)."""
-    out: list[str] = []
-    _emit(doc, "", out)
-    return "\n".join(out) + "\n"

@@ -33,26 +33,13 @@ class CaseSensitivity:
         return sorted(rows, key=lambda te: -te[1].normalised)
 
 
-def _table_numbers(study: StudyCase) -> dict:
-    """(axis, plane restraint index) -> [[restraint]] number."""
-    out = {}
-    count = {a: 0 for a in study.axes}
-    for i, t in enumerate(study.restraint_tables(), start=1):
-        ax = t.get("axis", "both")
-        for a in (study.axes if ax == "both" else (ax,)):
-            out[(a, count[a])] = i
-            count[a] += 1
-    return out
-
-
 def case_sensitivities(study: StudyCase, check: bool = True) -> CaseSensitivity:
-    numbers = _table_numbers(study)
     entries, tables, lams = [], [], {}
     for axis, col in study.case.planes:
         rows = column_sensitivities(col, axis=axis, tol=study.case.tolerance, check=check)
         for e in rows:
             entries.append(e)
-            tables.append(numbers[(axis, e.restraint)])
+            tables.append(study.table_number(axis, e.restraint))
             lams[axis] = e.load_factor
     if not entries:
         raise CaseError("restraint", "the case has no springs")

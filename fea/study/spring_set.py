@@ -20,14 +20,14 @@ from dataclasses import dataclass
 
 import numpy as np
 import scipy.linalg as sla
+from scipy.linalg.lapack import dpbtrf
 
 from ..assemble import assemble
 from ..errors import ModelError
+from ..formulas import effective_length_factor
 from ..mesh import build_mesh
 from ..model import Column
 from ..solve.eigen import DEFAULT_TOL, buckling
-
-from scipy.linalg.lapack import dpbtrf
 
 __all__ = ["SpringModel", "converged_level", "effective_length_factors", "segment_forces", "spring_dof"]
 
@@ -71,7 +71,7 @@ def effective_length_factors(column: Column, load_factor) -> np.ndarray:
     Ncr = Np + lam[..., None] * Nv
     good = (lam[..., None] > 0) & np.isfinite(lam[..., None]) & (Ncr > 0)
     with np.errstate(invalid="ignore", divide="ignore"):
-        K = np.pi / L * np.sqrt(EI / np.where(good, Ncr, np.nan))
+        K = effective_length_factor(L, EI, np.where(good, Ncr, np.nan))
     return np.where(good, K, np.nan)
 
 

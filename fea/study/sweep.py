@@ -7,9 +7,10 @@ Two ways to a point:
   eigen-decomposition per plane.  Two parameters: :class:`SpringModel` holds one
   assembled mesh per plane and each grid point costs a few banded Cholesky
   factorisations (inertia bisection); rows of the grid go to the process pool.
-* **re-solve path** - any other input (a length, a load, an I, E...): the
-  case document is edited at the key path, written back to TOML, parsed and
-  checked again, and solved from scratch by :func:`fea.solve.eigen.buckling`
+* **re-solve path** - any other input (a length, a load, an I, E...): a copy
+  of the case document is changed at the key path and rebuilt into a checked
+  case by the rebuild function the command layer passes (springs are set on
+  the parsed case), and solved from scratch by :func:`fea.solve.eigen.buckling`
   at the case's tolerance.  Points go to the process pool in chunks.
 
 Both give, for each bending plane, the lowest load factor and the K of chosen
@@ -27,18 +28,18 @@ from __future__ import annotations
 
 import math
 import os
+from collections.abc import Mapping
 from concurrent.futures import ProcessPoolExecutor, as_completed
 from dataclasses import dataclass
 
 import numpy as np
 
 from ..errors import CaseError, FeaError, ModelError
-from ..io.case import parse_case
 from ..solve.eigen import buckling
 from ..solve.one_spring import SpringStudy
-from .paths import KeyPath, dump_toml, with_values
+from .paths import KeyPath, parse_key
 from .spring_set import SpringModel, converged_level, effective_length_factors
-from .target import StudyCase
+from .target import Rebuild, StudyCase, rebuilt
 
 __all__ = ["ParameterRange", "SweepResult", "make_range", "sweep", "reference_stiffness", "SCALES",
            "LOG_SPAN_BELOW", "LOG_SPAN_ABOVE"]
@@ -225,16 +226,20 @@ def default_jobs() -> int:
 # re-solve path
 
 
-def _resolve_points(doc: dict, key_texts: tuple[str, ...], points: list[tuple[float, ...]],
+def _resolve_points(rebuild: Rebuild, doc: dict, key_texts: tuple[str, ...], points: list[tuple[float, ...]],
                     segments: tuple[int, ...], tol: float | None):
-    """Worker: parse and solve the case at each point; returns (lam (n_pts, n_axes), K, notes)."""
-    from .paths import parse_key
+    """Worker: rebuild and solve the case at each point; returns (lam (n_pts, n_axes), K, notes).
 
+    ``rebuild`` (document -> case) and the plain document ``doc`` are what a
+    worker process receives.  When only springs change, the case is built
+    here once and the springs are set on it; otherwise each point is rebuilt.
+    """
     keys = tuple(parse_key(t) for t in key_texts)
+    base = StudyCase(rebuild(doc), rebuild) if all(k.is_spring for k in keys) else None
     rows_lam, rows_K, notes = [], [], []
     for p, values in enumerate(points):
         try:
-            case = parse_case(dump_toml(with_values(doc, keys, values)))
+            case = base.with_springs(keys, values) if base else rebuilt(rebuild, doc, keys, values)
             lam, Ks = [], []
             for axis, col in case.planes:
                 try:
@@ -263,7 +268,10 @@ def _sweep_resolve(study: StudyCase, ranges, segments, tol, jobs, progress):
     keys = tuple(r.key.text for r in ranges)
     n_ax = len(study.axes)
     chunks = _chunks(len(flat), jobs)
-    tasks = [(study.doc, keys, flat[a:b], segments, tol) for a, b in chunks]
+    if study.rebuild is None:
+        raise CaseError("method", "the re-solve path needs the case's rebuild function")
+    doc = _plain(study.case.document)
+    tasks = [(study.rebuild, doc, keys, flat[a:b], segments, tol) for a, b in chunks]
     parts = _run_tasks(_resolve_points, tasks, jobs, progress, [b - a for a, b in chunks])
     lam = np.full((len(flat), n_ax), np.nan)
     K = np.full((len(flat), n_ax, len(segments)), np.nan)
@@ -275,6 +283,15 @@ def _sweep_resolve(study: StudyCase, ranges, segments, tol, jobs, progress):
                 K[a + j] = k_
         notes += [(a + p, m) for p, m in nt]
     return lam, K, tuple(notes)
+
+
+def _plain(doc) -> dict:
+    """The case document as plain dicts and lists (read-only views are not picklable)."""
+    if isinstance(doc, Mapping):
+        return {k: _plain(v) for k, v in doc.items()}
+    if isinstance(doc, list):
+        return [_plain(v) for v in doc]
+    return doc
 
 
 # ---------------------------------------------------------------------------
@@ -369,7 +386,7 @@ def sweep(study: StudyCase, ranges, segments=None, method: str = "auto", jobs: i
 
     Parameters
     ----------
-    study : the case and its document
+    study : the case (and its rebuild function, for the re-solve path)
     ranges : one or two :class:`ParameterRange`
     segments : segment indices (0-based) whose K to report; default all
     method : "auto" (spring path when every input is a restraint spring),
@@ -399,7 +416,7 @@ def sweep(study: StudyCase, ranges, segments=None, method: str = "auto", jobs: i
         if r.key.is_spring:
             study.targets(r.key)
         else:
-            r.key.get(study.doc)
+            r.key.get(study.case.document)
     jobs = max(1, int(jobs))
     if use_springs:
         lam, K, notes = _sweep_springs(study, ranges, segments, tol, jobs, progress)

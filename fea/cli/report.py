@@ -1,6 +1,5 @@
 """``stanchion report CASE``: write the calculation record of a case (HTML, optionally Markdown).
 
-Registered in :data:`fea.cli.COMMANDS` when :mod:`fea.extensions` loads this module.
 Everything is computed before anything is written, and every file is written
 atomically, so an error leaves no half-written report behind.
 """
@@ -13,11 +12,10 @@ import datetime
 import warnings
 from pathlib import Path
 
-from .. import cli
 from ..errors import FeaError
+from .common import EXIT_FAILED_CHECK, EXIT_OK
 
-__all__ = ["add_arguments", "run"]
-
+NAME = "report"
 HELP = "write the calculation record of a case: one self-contained HTML file, optionally Markdown"
 
 
@@ -65,10 +63,9 @@ def _check_target(path: Path, suffix: str, option: str) -> None:
 
 
 def run(args: argparse.Namespace) -> int:
-    from ..io.case import load_case
-    from ..io.export import result_dict, write_text_atomic
-    from ..pipeline import run_case
-    from . import build_markdown, build_report, report_figures
+    from ..pipeline import ANALYSES, REPORT_PARTS, load_case, run_case
+    from ..report import build_markdown, build_report, report_figures
+    from ..util.files import write_atomic
 
     case = load_case(args.case)
     out = Path(args.output) if args.output else Path(Path(args.case).stem + ".html")
@@ -80,32 +77,29 @@ def run(args: argparse.Namespace) -> int:
         raise FeaError(f"--modes: expected a whole number from 1 to 50, got {args.modes}")
     if args.units:
         case = dataclasses.replace(case, display=_display(args.units))
-    skip = ("imperfect", "design") if args.only_buckling else ()
+    skip = tuple(a.name for a in ANALYSES) if args.only_buckling else ()
     with warnings.catch_warnings(record=True) as caught:
         warnings.simplefilter("always")
         res = run_case(case, n_modes=args.modes, skip=skip)
     raised = list(dict.fromkeys(f"{w.category.__name__}: {w.message}" for w in caught))
-    data = result_dict(res)
-    figures = report_figures(res, data)
+    figures = report_figures(res)
     date = args.date or datetime.date.today().isoformat()
-    html_text = build_report(res, data, figures, warnings=raised, date=date)
+    html_text = build_report(res, figures=figures, parts=REPORT_PARTS, warnings=raised, date=date)
     files: list[tuple[Path, str]] = []
     if md is not None:
         links = {name: f"{md.stem}-{name}.svg" for name in figures}
         for name, svg in figures.items():
             files.append((md.with_name(links[name]), _standalone_svg(svg)))
-        files.append((md, build_markdown(res, data, figures, warnings=raised, date=date, figure_files=links)))
+        files.append((md, build_markdown(res, figures=figures, parts=REPORT_PARTS, warnings=raised, date=date,
+                                            figure_files=links)))
     files.append((out, html_text))
     for path, text in files:
-        write_text_atomic(path, text)
+        write_atomic(path, text)
     print(f"wrote {out}" + (f" and {md}" if md is not None else ""))
-    passed = data.get("design", {}).get("passed", True) if isinstance(data.get("design"), dict) else True
-    return cli.EXIT_OK if passed is not False else cli.EXIT_FAILED_CHECK
+    design = res.extras.get("design")
+    return EXIT_OK if design is None or design.passed else EXIT_FAILED_CHECK
 
 
 def _standalone_svg(svg: str) -> str:
     """An inline SVG element as a file of its own."""
     return '<?xml version="1.0" encoding="utf-8"?>\n' + svg + "\n"
-
-
-cli.COMMANDS["report"] = (HELP, add_arguments, run)

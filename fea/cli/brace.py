@@ -1,0 +1,50 @@
+"""``stanchion brace CASE``: the stiffness a brace needs to act as a point of no sway, and its force."""
+
+from __future__ import annotations
+
+import argparse
+
+from ..errors import FeaError
+from .study_common import add_common
+
+NAME = "brace"
+HELP = "stiffness a brace needs to act as a point of no sway, beside Winter's rule"
+
+
+def add_arguments(p: argparse.ArgumentParser) -> None:
+    add_common(p, plot=True)
+    p.add_argument("--restraint", type=int, action="append", metavar="N",
+                   help="[[restraint]] number of a brace (repeat for braces varied together). "
+                        "Default: the case's [study.brace]")
+    p.add_argument("--kind", choices=("lateral", "rotation"), help="spring of the brace (default lateral)")
+    p.add_argument("--axis", help="bending plane (major / minor) when the braces act in both")
+    p.add_argument("--fraction", type=float, help="target fraction of the rigid-brace load factor (default 0.95)")
+    p.add_argument("--eps", type=float, help="relative shortfall accepted as reaching it (default 1e-6)")
+    p.add_argument("--bow", type=float, metavar="RATIO",
+                   help="initial bow height/RATIO for the brace force (default 500)")
+
+
+def run(args: argparse.Namespace) -> int:
+    from ..io.study_output import brace_dict, brace_lines
+    from ..study.run import case_brace
+    from ..version import __version__
+    from .study_common import check_plot, finish, load_study
+
+    study, spec = load_study(args)
+    check_plot(args)
+    b = spec.brace
+    tables = tuple(args.restraint) if args.restraint else (b.restraints if b else None)
+    if not tables:
+        raise FeaError("no brace named: give --restraint N or a [study.brace] table in the case")
+    kind = args.kind or (b.kind if b else "lateral")
+    cb = case_brace(study, tables, kind=kind, axis=args.axis or (b.axis if b else None),
+                    fraction=args.fraction if args.fraction is not None else (b.fraction if b else 0.95),
+                    eps=args.eps if args.eps is not None else (b.eps if b else 1e-6),
+                    bow=args.bow if args.bow is not None else (b.bow if b else 500.0))
+    data = brace_dict(study, cb, __version__)
+    figure = None
+    if args.plot:
+        from ..plot.study import plot_brace
+
+        figure = plot_brace(cb.result, title=study.case.title, display=study.case.display)
+    return finish(args, data, lambda: brace_lines(study, cb, args.plot), figure=figure)

@@ -1,0 +1,26 @@
+"""``stanchion sensitivity CASE``: d(load factor)/d(stiffness) of every spring, and which matters most."""
+
+from __future__ import annotations
+
+import argparse
+
+from .study_common import add_common
+
+NAME = "sensitivity"
+HELP = "which restraint matters most: d(load factor)/d(stiffness) of every spring"
+
+
+def add_arguments(p: argparse.ArgumentParser) -> None:
+    add_common(p)
+    p.add_argument("--no-check", action="store_true", help="skip the finite-difference check")
+
+
+def run(args: argparse.Namespace) -> int:
+    from ..io.study_output import sensitivity_dict, sensitivity_lines
+    from ..study.run import case_sensitivities
+    from ..version import __version__
+    from .study_common import finish, load_study
+
+    study, _spec = load_study(args)
+    cs = case_sensitivities(study, check=not args.no_check)
+    return finish(args, sensitivity_dict(study, cs, __version__), lambda: sensitivity_lines(study, cs))

@@ -1,0 +1,124 @@
+"""What the restraint-study commands (sweep, brace, sensitivity, bounds) share.
+
+Reading the case into a :class:`~fea.study.target.StudyCase` with the function
+that rebuilds it from a changed document, the shared options, the progress
+bar, and writing and printing the outputs.
+"""
+
+from __future__ import annotations
+
+import argparse
+import json
+import sys
+import time
+from pathlib import Path
+from typing import TYPE_CHECKING, Callable
+
+from ..errors import FeaError
+from .common import EXIT_OK
+
+if TYPE_CHECKING:
+    from ..model.case import Case
+    from ..study.spec import StudySpec
+    from ..study.target import StudyCase
+
+__all__ = ["rebuild_case", "study_from_text", "load_study", "add_common", "check_plot", "jobs", "Progress",
+           "finish"]
+
+
+def rebuild_case(document: dict) -> Case:
+    """A case document (plain data) -> the parsed case, with every table of the pipeline.
+
+    Module-level so that the worker processes of a sweep can receive it.
+    """
+    from ..io.case import parse_document
+    from ..pipeline import CASE_TABLES
+
+    return parse_document(document, tables=CASE_TABLES)
+
+
+def study_from_text(text: str, source: str = "") -> StudyCase:
+    """A study case from case-file text."""
+    from ..pipeline import parse_case
+    from ..study.target import StudyCase
+
+    return StudyCase(parse_case(text, source=source), rebuild_case)
+
+
+def load_study(args: argparse.Namespace) -> tuple[StudyCase, StudySpec]:
+    """The study case of ``args.case`` and its ``[study]`` settings (defaults when absent)."""
+    from ..pipeline import load_case
+    from ..study.spec import StudySpec
+    from ..study.target import StudyCase
+
+    case = load_case(args.case)
+    return StudyCase(case, rebuild_case), case.extras.get("study") or StudySpec()
+
+
+def add_common(p: argparse.ArgumentParser, csv: bool = False, plot: bool = False) -> None:
+    """The case argument and the output options of a study command."""
+    p.add_argument("case", help="case file (TOML); may declare a [study] table (docs/studies.md)")
+    p.add_argument("--json", nargs="?", const="-", metavar="FILE",
+                   help="write the JSON result (SI) to FILE, or to standard output instead of the summary")
+    if csv:
+        p.add_argument("--csv", metavar="FILE", help="write the table (SI, units in the header) to FILE")
+    if plot:
+        p.add_argument("--plot", metavar="FILE", action="append", default=[],
+                       help="draw the chart to FILE (.png, .svg or .pdf); may be repeated")
+
+
+def check_plot(args: argparse.Namespace) -> None:
+    for f in getattr(args, "plot", None) or []:
+        if Path(f).suffix.lower() not in (".png", ".svg", ".pdf"):
+            raise FeaError(f"--plot: {f!r} has no known extension: expected .png, .svg or .pdf")
+
+
+def jobs(args: argparse.Namespace, spec: StudySpec) -> int:
+    """Worker processes: ``--jobs``, else the case's ``study.jobs``, else every CPU."""
+    from ..study.sweep import default_jobs
+
+    j = args.jobs if getattr(args, "jobs", None) else (spec.jobs or default_jobs())
+    if j < 1:
+        raise FeaError(f"--jobs: expected a whole number >= 1, got {j}")
+    return j
+
+
+class Progress:
+    """A one-line progress bar on standard error, drawn only when it is a terminal."""
+
+    def __init__(self, label: str) -> None:
+        self.label = label
+        self.on = sys.stderr.isatty()
+        self.t0 = time.perf_counter()
+
+    def __call__(self, done: int, total: int) -> None:
+        if not self.on or total <= 0:
+            return
+        w = 30
+        f = done / total
+        sys.stderr.write(f"\r{self.label} [{'#' * int(w * f):<{w}}] {done}/{total} "
+                         f"{time.perf_counter() - self.t0:5.1f} s")
+        if done >= total:
+            sys.stderr.write("\n")
+        sys.stderr.flush()
+
+
+def finish(args: argparse.Namespace, data: dict, lines: Callable[[], list[str]], csv: str | None = None,
+           figure=None) -> int:
+    """Write the JSON (and CSV, and the chart to every ``--plot`` file), then print the JSON or the summary."""
+    from ..util.files import write_atomic
+
+    if getattr(args, "json", None) and args.json != "-":
+        write_atomic(args.json, json.dumps(data, indent=1, allow_nan=False) + "\n")
+    if csv is not None and getattr(args, "csv", None):
+        write_atomic(args.csv, csv)
+    for f in getattr(args, "plot", None) or []:
+        from ..plot import save_figure
+
+        save_figure(figure, f)
+    if args.json == "-":
+        print(json.dumps(data, indent=1, allow_nan=False))
+        return EXIT_OK
+    for line in lines():
+        print(line)
+    return EXIT_OK

@@ -1,0 +1,92 @@
+"""Design results -> the JSON ``"design"`` part (SI; documented in docs/design.md) and summary lines."""
+
+from __future__ import annotations
+
+import math
+from typing import Any
+
+from ..cautions import CAUTION
+from ..design.check import DesignResult
+from ..units import DisplayUnits
+
+__all__ = ["DESIGN_CAUTION", "design_json", "design_summary"]
+
+DESIGN_CAUTION = ("Design resistances use the published formulas only; the governing standard, its national "
+                  "annex and a licensed engineer decide. " + CAUTION)
+
+
+
+def _num(x: float | None) -> float | None:
+    if x is None:
+        return None
+    x = float(x)
+    return x if math.isfinite(x) else None
+
+
+def design_json(r: DesignResult) -> dict[str, Any]:
+    """The JSON ``"design"`` part (SI; documented in docs/design.md)."""
+    g = r.governing
+    return {
+        "standard": r.standard,
+        "load_factor": r.load_factor,
+        "passed": r.passed,
+        "max_utilisation": g.utilisation,
+        "governing": {"segment": g.segment + 1, "name": g.name, "axis": g.axis, "kind": g.kind,
+                      "utilisation": g.utilisation},
+        "checks": [
+            {
+                "segment": c.segment + 1,
+                "name": c.name,
+                "axis": c.axis,
+                "kind": c.kind,
+                "standard": c.standard,
+                "clause": c.clause,
+                "formula": c.formula,
+                "parameter": c.parameter,
+                "slenderness": _num(c.slenderness),
+                "slenderness_name": c.slenderness_name,
+                "reduction_factor": _num(c.reduction),
+                "N_cr_N": _num(c.N_cr),
+                "N_Ed_N": c.N_Ed,
+                "resistance_N": c.resistance,
+                "utilisation": c.utilisation,
+                "passed": c.passed,
+                "governs": c.governs,
+                "effective_length_factor": _num(c.effective_length_factor),
+                "k_meaningful": c.k_meaningful,
+                "note": c.note,
+                "details": {k: _num(v) for k, v in c.details.items()},
+                "labels": dict(c.labels),
+            }
+            for c in r.checks
+        ],
+        "notes": list(r.notes),
+        "caution": DESIGN_CAUTION,
+    }
+
+
+def design_summary(r: DesignResult, d: DisplayUnits) -> list[str]:
+    """Summary lines of a design check, in display units."""
+    from .summary import fmt
+
+    out = [f"Design check: {r.standard}"]
+    out += [f"  {n}" for n in r.notes]
+    out.append(f"  {'segment':<18} {'axis':<8} {'slender.':>14} {'reduct.':>7} {'N_Ed [' + d.force + ']':>11} "
+               f"{'N_cr [' + d.force + ']':>12} {'N_Rd [' + d.force + ']':>12} {'util.':>6}  clause / parameter")
+    for c in r.checks:
+        name = f"{c.segment + 1} {c.name}"[:18]
+        sl = "-" if c.kind == "tension" else f"{c.slenderness_name} {c.slenderness:.3g}"
+        Ncr = "-" if not math.isfinite(c.N_cr) else fmt(d.F(c.N_cr))
+        axis = "tension" if c.kind == "tension" else c.axis
+        flag = "" if c.passed else "  FAILS"
+        out.append(f"  {name:<18} {axis:<8} {sl:>14} {c.reduction:7.3f} {fmt(d.F(c.N_Ed)):>11} {Ncr:>12} "
+                   f"{fmt(d.F(c.resistance)):>12} {c.utilisation:6.3f}  {c.clause}; {c.parameter}"
+                   f"{'; ' + c.governs + ' governs' if c.governs in ('material', 'net') else ''}{flag}")
+        if c.note:
+            out.append(f"  {'':<18} ({c.note})")
+    g = r.governing
+    where = "in tension" if g.kind == "tension" else f"about the {g.axis} axis"
+    out.append(f"Governing: segment {g.segment + 1} ({g.name}) {where}, utilisation {g.utilisation:.3f}: "
+               f"{'PASSES' if r.passed else 'FAILS'}")
+    out.append(f"  {DESIGN_CAUTION.split(CAUTION)[0].strip()}")
+    return out

@@ -1,0 +1,301 @@
+"""Restraint-study results -> JSON dicts and CSV text (SI) and the lines of their terminal summaries.
+
+JSON and CSV are in SI units with the unit in every header; the layout is
+documented in ``docs/studies.md``.  The summaries are in the case's display
+units.  Nothing here prints or writes files: the commands do.
+"""
+
+from __future__ import annotations
+
+import io
+import math
+
+import numpy as np
+
+from ..cautions import CAUTION
+from ..study.paths import parse_key
+from ..util.numbers import finite_list
+from ..util.numbers import finite_or_none as _num
+from .summary import fmt
+
+__all__ = ["sweep_dict", "sweep_csv", "brace_dict", "sensitivity_dict", "bounds_dict", "sweep_lines",
+           "brace_lines", "sensitivity_lines", "bounds_lines", "display_unit", "stiffness_text"]
+
+
+# ---------------------------------------------------------------------------
+# JSON / CSV (SI)
+
+
+def _header(study, name: str, version: str) -> dict:
+    case = study.case
+    return {"units": "SI", "tool": {"name": "stanchion", "version": version}, "study": name,
+            "caution": CAUTION, "title": case.title, "case_file": case.source, "case_sha256": case.sha256}
+
+
+def sweep_dict(study, res, version: str) -> dict:
+    """The JSON of a sweep (``version``: the tool's version for the header)."""
+    out = _header(study, "sweep", version)
+    out.update({
+        "method": res.method, "tolerance": res.tolerance,
+        "parameters": [{"key": r.key.text, "unit": r.key.si_unit, "scale": r.scale,
+                        "values": finite_list(r.values),
+                        "rigid_at": [i for i, v in enumerate(r.values) if math.isinf(v)]} for r in res.ranges],
+        "axes": list(res.axes),
+        "segments": [s + 1 for s in res.segments],
+        "load_factor": {"governing": finite_list(res.governing),
+                        **{a: finite_list(res.load_factors[a]) for a in res.axes}},
+        "governing_axis": np.asarray(res.axes, dtype=object)[res.governing_axis].tolist(),
+        "K": {a: {f"segment {s + 1}": finite_list(res.K[a][..., j]) for j, s in enumerate(res.segments)}
+              for a in res.axes},
+        "notes": [{"point": int(i), "message": m} for i, m in res.notes],
+    })
+    return out
+
+
+def sweep_csv(res) -> str:
+    """The CSV table of a sweep: one row per point (SI, units in the header)."""
+    buf = io.StringIO()
+    head = [f"{r.key.text} [{r.key.si_unit}]" for r in res.ranges] + ["load_factor [-]", "governing_axis"]
+    for a in res.axes:
+        head.append(f"load_factor_{a} [-]")
+    for a in res.axes:
+        head += [f"K_{a}_segment{s + 1} [-]" for s in res.segments]
+    buf.write(",".join(head) + "\n")
+    grids = np.meshgrid(*[r.values for r in res.ranges], indexing="ij")
+    for idx in np.ndindex(*res.shape):
+        row = [repr(float(g[idx])) for g in grids]
+        row += [repr(float(res.governing[idx])), res.axes[int(res.governing_axis[idx])]]
+        row += [repr(float(res.load_factors[a][idx])) for a in res.axes]
+        for a in res.axes:
+            row += [repr(float(v)) for v in res.K[a][idx]]
+        buf.write(",".join(row) + "\n")
+    return buf.getvalue()
+
+
+def brace_dict(study, cb, version: str) -> dict:
+    """The JSON of a brace study."""
+    r = cb.result
+    out = _header(study, "brace", version)
+    out.update({
+        "axis": r.axis, "restraints": list(cb.tables), "kind": r.kind, "stations_m": list(r.stations),
+        "stiffness_unit": "N/m" if r.kind == "lateral" else "N*m/rad",
+        "given_stiffness": [_num(v) for v in r.given_stiffness],
+        "load_factor_given": _num(r.load_factor_given), "load_factor_rigid": _num(r.load_factor_rigid),
+        "load_factor_free": _num(r.load_factor_free),
+        "eps": r.eps, "threshold_stiffness": _num(r.threshold),
+        "fraction": r.fraction, "fraction_stiffness": _num(r.fraction_stiffness),
+        "mesh_level": r.level,
+        "winter": {"source": "Winter (1960), ideal stiffness of n equally spaced braces",
+                   "n_braces": len(r.restraints), "coefficient": r.winter_coefficient,
+                   "axial_force_N": r.axial_force_rigid, "spacing_m": r.spacing,
+                   "equally_spaced": r.equally_spaced, "ideal_stiffness": _num(r.winter_stiffness)},
+        "aisc_360_appendix_6": {"source": "AISC 360-16 Appendix 6.2, point (nodal) column bracing, from memory",
+                                "phi": 0.75, "required_axial_force_N": r.axial_force_design,
+                                "stiffness_N_per_m": _num(r.aisc_stiffness),
+                                "strength_N": _num(r.aisc_strength),
+                                "stiffness_at_rigid_brace_critical_load_N_per_m": _num(r.aisc_stiffness_at_rigid)},
+        "brace_force": None if cb.force is None else {
+            "stiffness": cb.force.stiffness, "basis": cb.force.basis, "bow": f"height/{cb.force.bow_ratio:g}",
+            "forces_N": [_num(f) for f in cb.force.forces], "force_over_axial": [_num(f) for f in cb.force.ratios],
+            "critical_load_factor": _num(cb.force.critical_load_factor)},
+        "brace_force_note": cb.force_note,
+        "curve": {"stiffness": [float(v) for v in r.curve_k], "load_factor": [_num(v) for v in r.curve_load_factor]},
+    })
+    return out
+
+
+def sensitivity_dict(study, cs, version: str) -> dict:
+    """The JSON of the spring sensitivities."""
+    out = _header(study, "sensitivity", version)
+    out.update({
+        "load_factors": {a: _num(v) for a, v in cs.load_factors.items()},
+        "governing_axis": cs.governing_axis,
+        "springs": [{"restraint": t, "axis": e.axis, "kind": e.kind, "at_m": e.at,
+                     "stiffness": _num(e.stiffness), "unit": "N/m" if e.kind == "lateral" else "N*m/rad",
+                     "rigid": e.rigid, "load_factor": _num(e.load_factor),
+                     "derivative": _num(e.derivative), "normalised": _num(e.normalised),
+                     "finite_difference": _num(e.fd_derivative),
+                     "relative_difference": _num(e.fd_relative_difference), "note": e.note}
+                    for t, e in zip(cs.tables, cs.entries)],
+        "ranking": [{"restraint": t, "axis": e.axis, "kind": e.kind, "normalised": e.normalised}
+                    for t, e in cs.ranking()],
+    })
+    return out
+
+
+def bounds_dict(study, cb, version: str) -> dict:
+    """The JSON of the fixity bounds."""
+    out = _header(study, "bounds", version)
+    out.update({
+        "springs": [{"key": k, "low": _num(lo), "high": _num(hi)} for k, lo, hi in zip(cb.keys, cb.low, cb.high)],
+        "statement": "the lowest load factor never decreases as a spring stiffens, so the corners of the box "
+                     "bound it (every corner is evaluated)",
+        "load_factor_min": _num(cb.load_factor_min), "load_factor_max": _num(cb.load_factor_max),
+        "planes": [{"axis": p.axis, "load_factor_min": _num(p.load_factor_min),
+                    "load_factor_max": _num(p.load_factor_max),
+                    "K_min": [_num(v) for v in p.K_min], "K_max": [_num(v) for v in p.K_max],
+                    "corners": [{"stiffness": [_num(v) for v in c], "load_factor": _num(lam)}
+                                for c, lam in zip(p.corners, p.corner_load_factors)],
+                    "mesh_level": p.level} for p in cb.planes],
+        "unaffected_planes": {a: _num(v) for a, v in cb.fixed.items()},
+    })
+    return out
+
+
+# ---------------------------------------------------------------------------
+# display units
+
+
+def display_unit(si_unit: str, d) -> tuple[str, float]:
+    """The display unit of ``d`` for a quantity given in ``si_unit``, and the SI value of one such unit."""
+    L, F = d.length, d.force
+    table = {
+        "m": (L, d.length_si),
+        "N": (F, d.force_si),
+        "N/m": (f"{F}/{L}", d.force_si / d.length_si),
+        "N*m/rad": (f"{F}*{L}/rad", d.force_si * d.length_si),
+        "N/m^2": (f"{F}/{L}^2", d.force_si / d.length_si**2),
+        "Pa": (d.stress, d.stress_si),
+        "m^2": (f"{L}^2", d.length_si**2),
+        "m^4": (f"{L}^4", d.length_si**4),
+    }
+    return table.get(si_unit, (si_unit, 1.0))
+
+
+def stiffness_text(v: float | None, kind: str, d) -> str:
+    """A spring stiffness in display units ``d``: "rigid", "free", "not reached" (None) or a number and unit."""
+    if v is None:
+        return "not reached"
+    if math.isinf(v):
+        return "rigid"
+    if v == 0:
+        return "free"
+    if kind == "lateral":
+        return f"{fmt(v / d.force_si * d.length_si)} {d.force}/{d.length}"
+    return f"{fmt(v / (d.force_si * d.length_si))} {d.force}*{d.length}/rad"
+
+
+# ---------------------------------------------------------------------------
+# terminal summaries (display units); ``charts``: the chart files written
+
+
+def _title(study) -> str:
+    return study.case.title or "(untitled case)"
+
+
+def _ending(charts=()) -> list[str]:
+    """The chart files written, then the caution."""
+    return [f"  chart written to {f}" for f in charts] + [CAUTION]
+
+
+def sweep_lines(study, res, charts=()) -> list[str]:
+    """The summary of a sweep: a table of a one-parameter sweep, the range of a two-parameter one."""
+    ranges = res.ranges
+    out = [_title(study),
+           f"sweep of {' and '.join(r.key.text for r in ranges)}: {res.governing.size} points, {res.method} path, "
+           f"tolerance {res.tolerance:.0e}"]
+    if len(ranges) == 1:
+        out += _sweep_table(study, res)
+    else:
+        g = res.governing
+        out.append(f"  load factor from {fmt(np.nanmin(g))} to {fmt(np.nanmax(g))} over the "
+                   f"{g.shape[0]} x {g.shape[1]} grid (all values in --csv / --json)")
+    if res.notes:
+        out.append(f"  {len(res.notes)} point(s) could not be analysed; first: {res.notes[0][1]}")
+    return out + _ending(charts)
+
+
+def _sweep_table(study, res) -> list[str]:
+    """At most about 16 rows of a one-parameter sweep (always the last)."""
+    r = res.ranges[0]
+    unit, scale = display_unit(r.key.si_unit, study.case.display)
+    out = [f"  {r.key.text + ' [' + unit + ']':>28} {'load factor':>12} {'axis':>8} "
+           + " ".join(f"{'K seg ' + str(s + 1):>9}" for s in res.segments)]
+    Kg = res.K_governing()
+    step = max(1, r.values.size // 15)
+    shown = sorted(set(list(range(0, r.values.size, step)) + [r.values.size - 1]))
+    for i in shown:
+        v = r.values[i]
+        vt = "free" if r.key.is_spring and v == 0 else "rigid" if math.isinf(v) else fmt(v / scale)
+        out.append(f"  {vt:>28} {fmt(res.governing[i]):>12} {res.axes[res.governing_axis[i]]:>8} "
+                   + " ".join(f"{'-' if math.isnan(k) else f'{k:.4f}':>9}" for k in Kg[i]))
+    if len(shown) < r.values.size:
+        out.append(f"  ({len(shown)} of {r.values.size} rows shown; all in --csv / --json)")
+    return out
+
+
+def brace_lines(study, cb, charts=()) -> list[str]:
+    """The summary of a brace study."""
+    r, d = cb.result, study.case.display
+    out = [_title(study),
+           f"brace study, {r.axis} plane, {r.kind} restraint(s) {', '.join(map(str, cb.tables))} at "
+           f"{', '.join(fmt(d.L(s)) for s in r.stations)} {d.length}, varied together",
+           f"  load factor: braces as given {fmt(r.load_factor_given)}, rigid {fmt(r.load_factor_rigid)}, "
+           f"removed {fmt(r.load_factor_free) if r.load_factor_free > 0 else '0 (mechanism)'}",
+           f"  threshold stiffness (load factor within {r.eps:.0e} of rigid): {stiffness_text(r.threshold, r.kind, d)}",
+           f"  stiffness for {100 * r.fraction:g}% of the rigid-brace load factor: "
+           f"{stiffness_text(r.fraction_stiffness, r.kind, d)}"]
+    if r.kind == "lateral":
+        even = "equally spaced" if r.equally_spaced else "NOT equally spaced: Winter's rule is indicative only"
+        out.append(f"  Winter (1960), {len(r.restraints)} brace(s), {even}: {r.winter_coefficient:.3f} P/Lb with "
+                   f"P = {fmt(d.F(r.axial_force_rigid))} {d.force}, Lb = {fmt(d.L(r.spacing))} {d.length}: "
+                   f"{stiffness_text(r.winter_stiffness, 'lateral', d)}")
+        out.append(f"  AISC 360-16 App. 6.2 point bracing (from memory), P_r = {fmt(d.F(r.axial_force_design))} "
+                   f"{d.force}: stiffness 8 P_r/(0.75 Lb) = {stiffness_text(r.aisc_stiffness, 'lateral', d)}, "
+                   f"strength 0.01 P_r = {fmt(d.F(r.aisc_strength))} {d.force}")
+    if cb.force is not None:
+        fs = ", ".join(f"{fmt(d.F(f))} {d.force} ({100 * q:.2f}% of P)" for f, q in zip(cb.force.forces,
+                                                                                        cb.force.ratios))
+        out.append(f"  brace force at load factor 1, bow H/{cb.force.bow_ratio:g}, stiffness "
+                   f"{stiffness_text(cb.force.stiffness, 'lateral', d)} ({cb.force.basis}): {fs}")
+    elif cb.force_note:
+        out.append(f"  {cb.force_note}")
+    return out + _ending(charts)
+
+
+def sensitivity_lines(study, cs) -> list[str]:
+    """The summary of the spring sensitivities, ending with the restraint that matters most."""
+    d = study.case.display
+    out = [_title(study),
+           "sensitivity of the lowest load factor to each spring (from the mode shape; "
+           "normalised = (k / load factor) d(load factor)/dk)",
+           f"  {'restraint':>9} {'axis':>8} {'kind':>8} {'at':>8} {'stiffness':>22} {'normalised':>11} "
+           f"{'FD check':>9}"]
+    for t, e in zip(cs.tables, cs.entries):
+        if e.rigid:
+            out.append(f"  {t:>9} {e.axis:>8} {e.kind:>8} {fmt(d.L(e.at)):>8} {'rigid':>22} {'(rigid)':>11}")
+            continue
+        chk = "-" if e.fd_relative_difference is None else f"{e.fd_relative_difference:.0e}"
+        out.append(f"  {t:>9} {e.axis:>8} {e.kind:>8} {fmt(d.L(e.at)):>8} "
+                   f"{stiffness_text(e.stiffness, e.kind, d):>22} "
+                   f"{e.normalised:11.4f} {chk:>9}{'  ' + e.note if e.note else ''}")
+    rank = cs.ranking()
+    if rank:
+        t, e = rank[0]
+        out.append(f"which restraint matters most ({cs.governing_axis} plane governs, load factor "
+                   f"{fmt(cs.load_factors[cs.governing_axis])}): restraint {t} {e.kind} at {fmt(d.L(e.at))} "
+                   f"{d.length}: 1% stiffer raises the load factor by {e.normalised:.3f}%")
+    return out + _ending()
+
+
+def bounds_lines(study, cb) -> list[str]:
+    """The summary of the fixity bounds."""
+    d = study.case.display
+    out = [_title(study)]
+    for k, lo, hi in zip(cb.keys, cb.low, cb.high):
+        kind = parse_key(k).kind
+        out.append(f"  {k}: {stiffness_text(lo, kind, d)} to {stiffness_text(hi, kind, d)}")
+    out.append("the load factor never decreases as a spring stiffens, so the corners of the box bound it "
+               "(all corners evaluated)")
+    for p in cb.planes:
+        out.append(f"  {p.axis or 'plane'}: load factor {fmt(p.load_factor_min)} to {fmt(p.load_factor_max)} "
+                   f"({p.corners.shape[0]} corners)")
+        for i, s in enumerate(study.case.segments):
+            lo, hi = p.K_min[i], p.K_max[i]
+            if not math.isnan(lo):
+                out.append(f"    segment {i + 1} {s.name}: K {lo:.3f} to "
+                           f"{'inf' if math.isinf(hi) else f'{hi:.3f}'}")
+    for a, v in cb.fixed.items():
+        out.append(f"  {a}: load factor {fmt(v)} (no uncertain spring acts in this plane)")
+    out.append(f"governing load factor from {fmt(cb.load_factor_min)} to {fmt(cb.load_factor_max)}")
+    return out + _ending()

@@ -1,0 +1,23 @@
+"""The closing part of the report: warnings raised during the run, limitations and the caution."""
+
+from __future__ import annotations
+
+from ..cautions import CAUTION, LIMITATIONS
+from .document import Bullets, Heading, Note, Para, Part, T
+
+__all__ = ["closing_part"]
+
+
+def closing_part(warnings: list[str]) -> Part:
+    """The warnings (verbatim), the limitations of the tool and its caution (``json:cautions/<n>``)."""
+    blocks: list = [Heading(3, "Warnings raised during the run")]
+    if warnings:
+        blocks.append(Bullets(tuple((T(w, f"run:warnings/{i}"),) for i, w in enumerate(warnings))))
+    else:
+        blocks.append(Para(("None.",)))
+    blocks.append(Heading(3, "Limitations"))
+    blocks.append(Bullets(tuple((T(c, f"json:cautions/{i}"),) for i, c in enumerate(LIMITATIONS, start=1))
+                          + (("The report shows the results of the run; it neither recomputes nor checks them.",),)))
+    blocks.append(Heading(3, "Caution"))
+    blocks.append(Note((T(CAUTION, "json:cautions/0"),)))
+    return Part("closing", "Warnings, limitations and cautions", blocks)

@@ -1,0 +1,55 @@
+"""The front of the report: title, identification rows, the brief table of load factors, the caution."""
+
+from __future__ import annotations
+
+from ..cautions import CAUTION
+from ..results import CaseResults
+from ..version import __version__
+from .document import Para, Part, T, Table, q
+
+__all__ = ["title_of", "identification_rows", "brief_blocks", "caution", "running_head"]
+
+#: The parts every report has; the brief lists the others.
+STANDARD_PARTS = ("inputs", "method", "buckling", "closing")
+
+
+def title_of(res: CaseResults) -> T:
+    return T(res.case.title or "(untitled case)", "json:title")
+
+
+def identification_rows(res: CaseResults, date: str) -> list[tuple]:
+    """The identification rows printed under the title."""
+    case = res.case
+    d = case.display
+    return [
+        (("Case file",), (T(case.source, "json:case_file"),) if case.source else ("(given as text)",)),
+        (("Hash of the case file, ", T("SHA-256", "name:SHA-256")), (T(case.sha256, "json:case_sha256"),)),
+        (("Program",), (T("stanchion", "json:tool/name"), " version ", T(__version__, "json:tool/version"))),
+        (("Date of this report",), (T(date, "report:date"),)),
+        (("Display units",), (f"lengths in {d.length}, forces in {d.force}, stresses in {d.stress}",)),
+    ]
+
+
+def brief_blocks(res: CaseResults, parts: list[Part]) -> list:
+    """The lowest load factor of every plane, and the optional parts this record contains."""
+    rows = []
+    for i, b in enumerate(res.buckling):
+        rows.append(((T(b.axis, f"json:buckling/{i}/axis"),), (q(b.load_factor, f"json:buckling/{i}/load_factors/0"),),
+                     ("governs" if b.axis == res.governing_axis else "",)))
+    brief: list = [Table((("Plane",), ("Lowest load factor λ",), ("",)), tuple(rows), numeric=(1,),
+                         caption=("Elastic critical load factors; the part on buckling gives the effective-length "
+                                  "factors.",))]
+    extra = [p.title.lower() for p in parts if p.key not in STANDARD_PARTS]
+    if extra:
+        brief.append(Para(("This record also contains: " + ", ".join(extra) + ".",)))
+    return brief
+
+
+def caution() -> T:
+    """The caution of the tool, shown under the identification rows."""
+    return T(CAUTION, "json:cautions/0")
+
+
+def running_head(res: CaseResults) -> str:
+    """The running head of every printed page."""
+    return f"{title_of(res).text} · case sha256 {res.case.sha256[:12]}"
