@@ -45,10 +45,7 @@ def result_json(r: "ImperfectResult") -> dict[str, Any]:
     """One plane's result as a JSON-able dict (SI)."""
     imp = r.imperfection
     so, nl = r.second_order, r.nonlinear
-    fy = r.first_yield_load_factor
-    src = "second-order elastic" if fy is not None else None
-    if fy is None and r.fibre_first_yield_load_factor is not None:
-        fy, src = r.fibre_first_yield_load_factor, "nonlinear fibre path"
+    fy, src = r.reported_first_yield
     comp = []
     for c in r.comparison:
         comp.append({

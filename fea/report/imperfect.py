@@ -71,18 +71,8 @@ _FACTOR_COLUMNS = ("segment", "critical_load_factor", "euler_load_factor", "perr
                    "first_yield_load_factor", "limit_load_factor")
 
 
-def _first_yield(r: "ImperfectResult") -> tuple[float | None, str | None]:
-    """The first-yield load factor the JSON part reports and where it comes from: the second-order elastic
-    analysis when it found one, else the nonlinear fibre path (the rule of :mod:`fea.io.imperfect_output`)."""
-    if r.first_yield_load_factor is not None:
-        return r.first_yield_load_factor, "second-order elastic"
-    if r.fibre_first_yield_load_factor is not None:
-        return r.fibre_first_yield_load_factor, "nonlinear fibre path"
-    return None, None
-
-
 def _plane_fields(r: "ImperfectResult") -> list[Field]:
-    fy, source = _first_yield(r)
+    fy, source = r.reported_first_yield
     return [("analysis", r.analysis), ("status", r.status), ("success", r.success), ("message", r.message),
             ("critical_load_factor", _num(r.critical_load_factor)), ("first_yield_load_factor", _num(fy)),
             ("first_yield_source", source),
@@ -99,7 +89,7 @@ def _bow_fields(r: "ImperfectResult") -> list[Field]:
 
 
 def _comparison_records(r: "ImperfectResult") -> list[dict[str, Any]]:
-    fy, _ = _first_yield(r)
+    fy, _ = r.reported_first_yield
     return [{"segment": c.index + 1, "axial_force_N": c.axial_force, "critical_force_N": _num(c.critical_force),
              "critical_load_factor": _num(r.critical_load_factor), "euler_force_N": c.euler_force,
              "euler_load_factor": _num(c.load_factor(c.euler_force)), "perry_force_N": _num(c.perry_force),

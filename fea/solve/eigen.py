@@ -196,6 +196,7 @@ def _check_solvable(column: Column, mesh: Mesh, asm: Assembled) -> None:
                                   "the column buckles before any variable load is applied")
 
 
+# Long only by its numpydoc docstring: the body is 66 lines.
 def buckling(column: Column, n_modes: int = 3, tol: float = DEFAULT_TOL, method: str = "auto",
              axis: str = "", min_level: int = 1) -> BucklingResult:
     """Lowest elastic critical load factors of ``column`` with automatic meshing.

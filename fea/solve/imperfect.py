@@ -123,6 +123,16 @@ class ImperfectResult:
     warnings: tuple[str, ...] = field(default_factory=tuple)
 
     @property
+    def reported_first_yield(self) -> tuple[float | None, str | None]:
+        """The headline first-yield load factor and the analysis it comes from: the second-order elastic
+        analysis when it found one, else the nonlinear fibre path; (None, None) when neither did."""
+        if self.first_yield_load_factor is not None:
+            return self.first_yield_load_factor, "second-order elastic"
+        if self.fibre_first_yield_load_factor is not None:
+            return self.fibre_first_yield_load_factor, "nonlinear fibre path"
+        return None, None
+
+    @property
     def success(self) -> bool:
         return self.status == "ok"
 

@@ -153,6 +153,7 @@ class PathResult:
     max_residual: float
 
 
+# Long only by its numpydoc docstring: the body is 14 lines.
 def trace_path(xy0, conn, section, F_ref, *, fixed=(), F_const=None, K_spring=None, K_spring_lambda=None,
                method: str = "arc-length", control_dof: int | None = None, n_ip: int = 3,
                initial_step: float = 0.05, max_step: float | None = None, max_steps: int = 200,

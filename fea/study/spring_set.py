@@ -29,7 +29,7 @@ from ..mesh import build_mesh
 from ..model import Column
 from ..solve.eigen import DEFAULT_TOL, buckling
 
-__all__ = ["SpringModel", "converged_level", "effective_length_factors", "segment_forces", "spring_dof"]
+__all__ = ["SpringModel", "converged_level", "effective_length_factors", "axial_force_parts", "spring_dof"]
 
 KIND_DOF = {"lateral": 0, "rotation": 1}
 
@@ -49,7 +49,7 @@ def spring_dof(mesh, column: Column, restraint: int, kind: str) -> int:
     return 2 * node + KIND_DOF[kind]
 
 
-def segment_forces(column: Column) -> tuple[np.ndarray, np.ndarray]:
+def axial_force_parts(column: Column) -> tuple[np.ndarray, np.ndarray]:
     """Permanent and variable (load factor 1) compression just above each segment's bottom [N]."""
     tolx = 1e-9 * column.height
     xs = np.array([a + tolx for a, _b in column.segment_bounds()])
@@ -65,7 +65,7 @@ def effective_length_factors(column: Column, load_factor) -> np.ndarray:
     A load factor of 0 or NaN gives NaN.
     """
     lam = np.asarray(load_factor, dtype=float)
-    Np, Nv = segment_forces(column)
+    Np, Nv = axial_force_parts(column)
     L = np.array([s.length for s in column.segments])
     EI = np.array([s.E * s.I_ref for s in column.segments])
     Ncr = Np + lam[..., None] * Nv
