@@ -87,7 +87,8 @@ def perry_root(f_y: float, f_e: float, eta: float) -> float:
     squash load ``A fy``), ``f_e`` the Euler stress (or critical force) and
     ``eta = e0 c / r^2`` the imperfection parameter.  Written without
     cancellation as ``s = f_y f_e / (B + sqrt(B^2 - f_y f_e))`` with
-    ``B = (f_y + (1 + eta) f_e) / 2``; ``f_e = inf`` (no slenderness) gives ``f_y``.
+    ``B = (f_y + (1 + eta) f_e) / 2``, and never above ``min(f_y, f_e)``; ``f_e = inf`` (no slenderness)
+    gives ``f_y``.
 
     Parameters
     ----------
@@ -98,4 +99,5 @@ def perry_root(f_y: float, f_e: float, eta: float) -> float:
     if math.isinf(f_e):
         return f_y
     B = 0.5 * (f_y + (1.0 + eta) * f_e)
-    return f_y * f_e / (B + math.sqrt(max(B * B - f_y * f_e, 0.0)))
+    # the smaller root never exceeds min(f_y, f_e); the bound removes a last-digit excess of the rounding
+    return min(f_y * f_e / (B + math.sqrt(max(B * B - f_y * f_e, 0.0))), f_y, f_e)

@@ -16,6 +16,10 @@ from pathlib import Path
 import pytest
 
 os.environ.setdefault("MPLBACKEND", "Agg")
+# The suite runs in parallel workers (``-n`` in pyproject.toml), one per core: one BLAS thread each keeps the
+# workers from oversubscribing the cores.  Set before numpy is first imported.
+for _var in ("OPENBLAS_NUM_THREADS", "OMP_NUM_THREADS", "MKL_NUM_THREADS"):
+    os.environ.setdefault(_var, "1")
 
 from fea import RIGID, Column, PointLoad, Restraint, Segment  # noqa: E402
 
