@@ -13,10 +13,10 @@ from functools import cached_property
 
 import numpy as np
 
-from .elements import elastic_stiffness, foundation_stiffness, geometric_stiffness
+from .elements import GAUSS_W, GAUSS_XI, elastic_stiffness, foundation_stiffness, geometric_stiffness, shape_functions
 from .mesh import Mesh
 
-__all__ = ["Assembled", "assemble"]
+__all__ = ["Assembled", "assemble", "element_bending_energies", "rayleigh_quotients", "residual"]
 
 
 #: Systems up to this size are assembled and solved densely with numpy alone
@@ -143,3 +143,103 @@ def assemble(mesh: Mesh, sparse: bool | None = None) -> Assembled:
     else:
         Kr = K0r
     return Assembled(matrices=(Kr, K0r, _reduce(G, free)), free=free, n_full=n, k_bending=kb)
+
+
+def _chord_rotations(mesh: Mesh, w: np.ndarray, th: np.ndarray) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
+    """Chord slopes ``psi`` and end rotations relative to the chord ``a``, ``b`` of every element."""
+    L = mesh.L if w.ndim == 1 else mesh.L[:, None]
+    psi = (w[1:] - w[:-1]) / L
+    return psi, th[:-1] - psi, th[1:] - psi
+
+
+def bending_energies(asm: Assembled, a: np.ndarray, b: np.ndarray) -> np.ndarray:
+    """Bending (and shear) energy ``0.5 [a b] k_rr [a b]^T`` of every element, (n_el,) or (n_el, m).
+
+    ``a``, ``b`` are the end rotations relative to the element chord; a rigid-body motion stores no energy,
+    so this equals ``0.5 u^T k_e u`` without its cancellation.
+    """
+    kb = asm.k_bending
+    if a.ndim == 1:
+        return 0.5 * (kb[:, 1, 1] * a * a + 2 * kb[:, 1, 3] * a * b + kb[:, 3, 3] * b * b)
+    return 0.5 * (kb[:, 1, 1, None] * a * a + 2 * kb[:, 1, 3, None] * a * b + kb[:, 3, 3, None] * b * b)
+
+
+def element_bending_energies(mesh: Mesh, asm: Assembled, full: np.ndarray) -> np.ndarray:
+    """Bending energy of every element for mode vectors in the full numbering (n_full, m): (n_el, m)."""
+    _, a, b = _chord_rotations(mesh, full[0::2], full[1::2])
+    return bending_energies(asm, a, b)
+
+
+def rayleigh_quotients(mesh: Mesh, asm: Assembled, vec: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
+    """Load factors ``v^T K v / v^T G v`` of vectors ``vec`` (n_red, m), evaluated element by element.
+
+    Returns the quotients and, for each vector, the share of its elastic energy stored in the springs
+    and foundations (as opposed to the members).
+
+    The bending energy of an element depends only on its end rotations relative to its chord,
+    ``a = theta_1 - psi`` and ``b = theta_2 - psi`` with ``psi = (w_2 - w_1) / L`` (a rigid-body motion
+    stores none), so it is evaluated as ``[a b] k_rr [a b]^T`` with ``k_rr`` the rotation block of the
+    element stiffness.  The assembled matrix instead sums terms of order ``EI / L^3 * w^2`` that
+    cancel down to ``EI * curvature^2``: on fine meshes, or where a far stiffer part moves almost
+    rigidly, that cancellation costs up to ``(H / L_e)^4`` in round-off.  The quotient is stationary at
+    an eigenvector, so the solver's vectors give load factors accurate to second order.
+    """
+    full = np.zeros((asm.n_full, vec.shape[1]))
+    full[asm.free] = vec
+    w, th = full[0::2], full[1::2]  # (n_nodes, m)
+    psi, a, b = _chord_rotations(mesh, w, th)
+    U_members = 2.0 * np.sum(bending_energies(asm, a, b), axis=0)
+    U = np.zeros_like(U_members)
+    if np.any(mesh.k_found):
+        kf = foundation_stiffness(mesh.L, mesh.k_found, mesh.phi)
+        ue = np.stack([w[:-1], th[:-1], w[1:], th[1:]], axis=1)  # (n_el, 4, m)
+        U += np.einsum("eim,eij,ejm->m", ue, kf, ue)
+    k_lat = np.where(np.isinf(mesh.k_lat), 0.0, mesh.k_lat)
+    k_rot = np.where(np.isinf(mesh.k_rot), 0.0, mesh.k_rot)
+    U += k_lat @ (w * w) + k_rot @ (th * th)
+    share = U / np.maximum(U + U_members, 1e-300)
+    U += U_members
+    _, dN = shape_functions(GAUSS_XI, mesh.L, mesh.phi)
+    # slope at the Gauss points: the chord slope plus the part due to the relative rotations
+    slope = psi[:, None, :] + dN[:, :, 1, None] * a[:, None, :] + dN[:, :, 3, None] * b[:, None, :]
+    wts = GAUSS_W[None, :] * mesh.L[:, None]
+    U -= np.einsum("eg,egm->m", mesh.N_perm * wts, slope * slope) + mesh.lean_perm @ (w * w)
+    V = np.einsum("eg,egm->m", mesh.N_var * wts, slope * slope) + mesh.lean_var @ (w * w)
+    return U / V, share
+
+
+def residual(mesh: Mesh, asm: Assembled, v: np.ndarray, lam: float) -> np.ndarray:
+    """``K v - lam G v`` for one vector (reduced numbering), element by element without cancellation.
+
+    The member forces come from the end rotations relative to the chord (as in
+    :func:`rayleigh_quotients`): moments ``m = k_rr [a b]^T`` at the ends and shears ``+-(m_1 + m_2) / L``.
+    The geometric terms use the slope at the Gauss points in the same split form.
+    """
+    full = np.zeros(asm.n_full)
+    full[asm.free] = v
+    w, th = full[0::2], full[1::2]
+    L = mesh.L
+    psi, a, b = _chord_rotations(mesh, w, th)
+    kb = asm.k_bending
+    ma = kb[:, 1, 1] * a + kb[:, 1, 3] * b
+    mb = kb[:, 3, 1] * a + kb[:, 3, 3] * b
+    _, dN = shape_functions(GAUSS_XI, L, mesh.phi)
+    d1, d3 = dN[:, :, 1], dN[:, :, 3]
+    slope = psi[:, None] + d1 * a[:, None] + d3 * b[:, None]
+    f = (mesh.N_perm + lam * mesh.N_var) * GAUSS_W[None, :] * L[:, None] * slope  # (n_el, 4) slope work
+    # d slope / d(theta_1, theta_2, psi) = (d1, d3, 1 - d1 - d3); d psi / d(w_1, w_2) = (-1/L, 1/L)
+    ga = ma - np.sum(f * d1, axis=1)
+    gb = mb - np.sum(f * d3, axis=1)
+    gpsi = -(ma + mb) - np.sum(f * (1.0 - d1 - d3), axis=1)
+    r = np.zeros(asm.n_full)
+    np.add.at(r, 2 * np.arange(mesh.n_el), -gpsi / L)
+    np.add.at(r, 2 * np.arange(1, mesh.n_el + 1), gpsi / L)
+    np.add.at(r, 2 * np.arange(mesh.n_el) + 1, ga)
+    np.add.at(r, 2 * np.arange(1, mesh.n_el + 1) + 1, gb)
+    if np.any(mesh.k_found):
+        kf = foundation_stiffness(L, mesh.k_found, mesh.phi)
+        idx = 2 * np.arange(mesh.n_el)[:, None] + np.arange(4)[None, :]
+        np.add.at(r, idx, np.einsum("eij,ej->ei", kf, full[idx]))
+    r[0::2] += (np.where(np.isinf(mesh.k_lat), 0.0, mesh.k_lat) - mesh.lean_perm - lam * mesh.lean_var) * w
+    r[1::2] += np.where(np.isinf(mesh.k_rot), 0.0, mesh.k_rot) * th
+    return r[asm.free]

@@ -10,7 +10,6 @@ the lowest load factor fall monotonically under refinement).
 
 from __future__ import annotations
 
-import math
 from dataclasses import dataclass
 
 import numpy as np
@@ -18,10 +17,15 @@ import numpy as np
 from .elements import GAUSS_W, GAUSS_XI
 from .model import STATION_TOL, Column
 
-__all__ = ["Mesh", "build_mesh", "BASE_DIVISIONS"]
+__all__ = ["Mesh", "build_mesh", "BASE_DIVISIONS", "interval_shifts", "segment_min_ei"]
 
 #: Elements over the whole height at refinement level 0 (at least one per interval).
 BASE_DIVISIONS = 4
+
+#: An interval shorter than ``2**-GRADE_FREE`` of a level-0 element, in buckling-wavelength terms
+#: (length scaled by ``sqrt(EI_min / EI)``), starts refining only at a later level (see
+#: :func:`interval_shifts`).  Ordinary columns are far from it, so their meshes are the plain nested ones.
+GRADE_FREE = 6
 
 
 @dataclass(frozen=True)
@@ -82,11 +86,14 @@ def build_mesh(column: Column, level: int = 0) -> Mesh:
     joints = np.array(column.joints)
     tol = STATION_TOL * H
 
-    xs = [stations[0]]
-    for a, b in zip(stations[:-1], stations[1:]):
-        n = max(1, math.ceil((b - a) / H * BASE_DIVISIONS - 1e-9)) * 2**level
-        xs.extend(a + (b - a) * np.arange(1, n + 1) / n)
-    x = np.array(xs)
+    a_, b_ = stations[:-1], stations[1:]
+    n0 = np.maximum(1, np.ceil((b_ - a_) / H * BASE_DIVISIONS - 1e-9)).astype(np.int64)
+    counts = n0 * 2 ** np.maximum(0, level - interval_shifts(column, stations))
+    # node heights: the stations, then every interval divided into its equal elements (vectorised)
+    first = np.repeat(np.cumsum(counts) - counts, counts)
+    k = np.arange(1, int(counts.sum()) + 1) - first
+    iv = np.repeat(np.arange(counts.size), counts)
+    x = np.concatenate([[stations[0]], a_[iv] + (b_[iv] - a_[iv]) * k / counts[iv]])
     x[-1] = H
     n_nodes = x.size
     station_nodes = {float(s): int(np.argmin(np.abs(x - s))) for s in stations}
@@ -100,9 +107,10 @@ def build_mesh(column: Column, level: int = 0) -> Mesh:
 
     EI = np.empty_like(xg)
     phi = np.zeros_like(L)
+    cuts = np.searchsorted(seg, np.arange(len(column.segments) + 1))  # elements ascend, so seg is sorted
     for i, s in enumerate(column.segments):
-        m = seg == i
-        if not np.any(m):
+        m = slice(cuts[i], cuts[i + 1])
+        if cuts[i] == cuts[i + 1]:
             continue
         EI[m] = s.E * s.inertia_at(xg[m] - joints[i])
         if s.S is not None:
@@ -134,6 +142,30 @@ def build_mesh(column: Column, level: int = 0) -> Mesh:
     return Mesh(x=x, station_nodes=station_nodes, L=L, seg=seg, x_gauss=xg, EI=EI, phi=phi, N_var=N_var,
                 N_perm=N_perm, k_found=k_found, k_lat=k_lat, k_rot=k_rot, lean_var=lean_var,
                 lean_perm=lean_perm, level=level)
+
+
+def segment_min_ei(column: Column) -> np.ndarray:
+    """Smallest flexural rigidity of each segment (the smaller end of a tapered one) [N m^2]."""
+    return np.array([s.E * min(s.I, s.I if s.I_top is None else s.I_top) for s in column.segments])
+
+
+def interval_shifts(column: Column, stations: np.ndarray) -> np.ndarray:
+    """Levels by which each station interval's refinement is delayed (0 for ordinary columns).
+
+    The discretisation error of a cubic element grows with ``(L_e k)^4``, ``k = sqrt(N / EI)``:
+    an interval that is very short, or very much stiffer than the most flexible segment, is
+    already resolved by one element long after the rest needs refining, while refining it only
+    adds round-off (nearly rigid elements with huge stiffness terms).  Its element count
+    doubles only from level ``shift`` on, which keeps the meshes nested.
+    """
+    H = column.height
+    joints = np.array(column.joints)
+    a, b = stations[:-1], stations[1:]
+    seg = np.clip(np.searchsorted(joints, 0.5 * (a + b), side="right") - 1, 0, len(column.segments) - 1)
+    ei = segment_min_ei(column)
+    rho = (b - a) / H * BASE_DIVISIONS * np.sqrt(ei.min() / ei[seg])
+    with np.errstate(divide="ignore"):
+        return np.maximum(0, np.floor(-np.log2(rho)) - GRADE_FREE).astype(np.int64)
 
 
 def _node_at(x: np.ndarray, at: float, tol: float) -> int:

@@ -24,16 +24,19 @@ import math
 import re
 from dataclasses import dataclass
 
-__all__ = ["QuantityText", "split_quantity", "GrammarError", "MAX_TEXT", "MAX_POWER"]
+__all__ = ["QuantityText", "split_quantity", "GrammarError", "MAX_TEXT", "MAX_POWER", "NUMBER_PATTERN"]
 
 #: Longest quantity text accepted [characters].
 MAX_TEXT = 80
 #: Largest whole power of a unit factor (m^4 is the largest needed).
 MAX_POWER = 4
 
-_NUMBER = re.compile(r"[+-]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][+-]?\d+)?")
+#: A number by the grammar (a regular expression, no anchors).
+NUMBER_PATTERN = r"[+-]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][+-]?\d+)?"
+_NUMBER = re.compile(NUMBER_PATTERN)
 _NAME = re.compile(r"[A-Za-zµμπ°]+")
 _POWER = re.compile(r"\^([+-]?\d+)")
+_SEPARATORS = re.compile(r"['’_\s]")
 _OP = re.compile(r"\s*([*/·])\s*")
 
 
@@ -63,22 +66,28 @@ class QuantityText:
 def _number_hint(text: str) -> str | None:
     """A message for the usual ways of writing a number that this grammar refuses, else None."""
     s = text.strip()
-    head = re.match(r"[+-]?[\d.,'’_ ]*\d", s)
+    head = re.match(r"[+-]?[\d.,'’_\s]*\d", s)
     if head is None:
         return None
     digits = head.group(0)
     rest = s[head.end():]
+    if "," in digits and "." in digits:
+        # "4.500,5" or "4,500.5": the last mark is the decimal one, the others separate thousands
+        last = max(digits.rfind(","), digits.rfind("."))
+        plain = re.sub(r"[.,'’_\s]", "", digits[:last]) + "." + digits[last + 1:]
+        return f"write the number with a decimal point and no thousands separators, e.g. {plain!r}"
     if "," in digits:
         if re.fullmatch(r"[+-]?\d{1,3}(,\d{3})+", digits):
             return f"write the number without thousands separators, e.g. {digits.replace(',', '')!r}"
-        return f"use a decimal point, not a comma: {digits.replace(',', '.')!r}"
+        plain = _SEPARATORS.sub("", digits).replace(",", ".")
+        return f"use a decimal point, not a comma: {plain!r}"
     if re.search(r"['’_]", digits):
         plain = re.sub(r"['’_]", "", digits)
         return f"write the number without separators, e.g. {plain!r}"
     if re.search(r"\d\s+\d", digits):
         joined = re.sub(r"\s+", "", digits)
         return ("a number may not contain spaces, and two numbers in a row are not a quantity: write one number "
-                f"then its unit, e.g. {joined!r} followed by the unit")
+                f"then its unit, e.g. {(joined + ' ' + rest.strip()).strip()!r} if {joined} is meant")
     if digits.count(".") > 1:
         return "a number has at most one decimal point"
     if rest.startswith(("*", "/", "^", "(")):
@@ -102,6 +111,8 @@ def split_quantity(text: str) -> QuantityText:
         hint = _number_hint(s)
         raise GrammarError(hint or "does not start with a number: write a number then its unit")
     number = float(m.group(0))
+    if number == 0.0 and re.search(r"[1-9]", re.split(r"[eE]", m.group(0))[0]):
+        raise GrammarError("is too small a number to compute with: it underflows double precision to zero")
     if not math.isfinite(number):
         raise GrammarError("is too large a number for double precision")
     if number != 0.0 and abs(number) < 1e-300:

@@ -125,3 +125,98 @@ def test_report_in_headless_chromium(runs, browser, tmp_path, name):
 
 #: The stepped test column of the design tests, with uplift at the top (the upper part in tension) and a
 #: net section at holes in the upper part.
+
+
+# -- hostile text from the case (issue 11): shown as text, never as markup ---------------------------
+
+#: What a case's texts may try: end the style sheet, an attribute or a CDATA section, open a comment,
+#: break a CSS or Markdown string with backslashes, quotes and escaped line breaks (a real line break or
+#: other control character in a text is refused when the case is read).
+HOSTILE = ('</style><h1 id="inj{i}">ALL CHECKS PASS</h1> "><script>alert(1)</script><b id="inj{i}b">x</b> ]]> */ '
+           "--> <!-- \\ \\\" ' ` | * _ [a](http://127.0.0.1:9/x) \\n\\r<i id=\"inj{i}c\">line</i> & &amp; end{i}")
+
+
+def _hostile_case() -> tuple[str, int]:
+    """The design demo case with a hostile text in every text field it can carry; the number of fields."""
+    import json
+
+    text = (Path(__file__).resolve().parents[1] / "cases" / "design_hall_column.toml").read_text(encoding="utf-8")
+    n = [0]
+
+    def hostile() -> str:
+        n[0] += 1
+        return json.dumps(HOSTILE.format(i=n[0]))
+
+    lines = []
+    for line in text.splitlines():
+        if re.match(r"(title|name)\s*=", line):
+            line = f"{line.split('=')[0]}= {hostile()}"
+        lines.append(line)
+        if line.strip() in ("[[restraint]]", "[[load]]"):
+            lines.append(f"note = {hostile()}")
+    return "\n".join(lines) + "\n", n[0]
+
+
+def test_hostile_case_texts_stay_text_in_chromium_and_markdown(browser, tmp_path):
+    from markdown_it import MarkdownIt
+
+    from tests.conftest import run_cli
+
+    text, fields = _hostile_case()
+    assert fields >= 8
+    case = tmp_path / "hostile.toml"
+    case.write_text(text, encoding="utf-8")
+    run = run_cli("report", str(case), "-o", str(tmp_path / "r.html"), "--markdown", str(tmp_path / "r.md"))
+    assert run.returncode in (0, 1), run.stderr
+    html_text = (tmp_path / "r.html").read_text(encoding="utf-8")
+    md_html = tmp_path / "md.html"
+    md_html.write_text("<!DOCTYPE html><html><body>" + MarkdownIt().render((tmp_path / "r.md").read_text())
+                       + "</body></html>", encoding="utf-8")
+    for page, n_h1 in ((tmp_path / "r.html", 1), (md_html, 1)):
+        dom = _chromium(browser, "--dump-dom", page.as_uri())
+        assert dom.returncode == 0, dom.stderr[-2000:]
+        out = dom.stdout
+        # no element the case's texts tried to inject exists; the one heading of level 1 is the title
+        tags = _start_tags(out)
+        assert not [t for t in tags if t[0] == "script" or any(v.startswith("inj") for _, v in t[1])], page.name
+        assert [t for t in tags if t[0] == "h1"] == [("h1", [])] * n_h1, page.name
+        assert not [t for t in tags if t[0] == "a" and any(v.startswith("http") for _, v in t[1])], page.name
+        parsed = parse_page(out)
+        h1 = [t for h, t in parsed.headings if h == "h1"]
+        assert len(h1) == 1 and "ALL CHECKS PASS" in h1[0] and "alert(1)" in h1[0] and "end1" in h1[0], h1
+        # the fields the record prints (title, material, segment names) show up as text; notes are not printed
+        for i in range(1, 5):
+            assert f"end{i}" in out, (page.name, i)
+    # the title reaches the printed page's running head as a CSS string, never as markup
+    style = html_text[html_text.index("<style>") + len("<style>"):html_text.index("</style>")]
+    assert "<" not in style and "ALL" in style
+
+
+def _start_tags(page: str) -> list[tuple[str, list[tuple[str, str]]]]:
+    """Every start tag of a page, with its attributes, as an HTML parser reads them."""
+    from html.parser import HTMLParser
+
+    class Tags(HTMLParser):
+        def __init__(self) -> None:
+            super().__init__()
+            self.tags: list[tuple[str, list[tuple[str, str]]]] = []
+
+        def handle_starttag(self, tag, attrs):
+            self.tags.append((tag, [(k, v or "") for k, v in attrs]))
+
+    p = Tags()
+    p.feed(page)
+    p.close()
+    return p.tags
+
+
+def test_renderers_escape_text_for_every_context():
+    # through the API a text may still hold a line break: the renderers escape whatever they are given
+    from fea.report.html import _css_string
+    from fea.report.markdown import _esc
+
+    css = _css_string('a</style>"\\\n*/ b')
+    assert css.startswith('"') and css.endswith('"') and not any(c in css[1:-1] for c in '<>"\n')
+    assert css.count("\\") == 5  # '<', '>', '"', '\\' and '*' as hexadecimal escapes; '/' kept
+    md = _esc("a | b\n# c [x](y) <i> \\* & `z`")
+    assert "\n" not in md and "<" not in md and "\\|" in md and "\\#" in md and "\\\\\\*" in md

@@ -2,82 +2,37 @@
 
 The only package that prints or sets the exit status.  Exit status: 0 success,
 1 a design check failed, 2 bad input (one line, no traceback unless ``--debug``),
-3 an internal error.  Each subcommand module has ``NAME``, ``HELP``, optionally
-``DESCRIPTION``, ``add_arguments(parser)`` and ``run(args) -> exit status``;
-:data:`SUBCOMMANDS` lists them in the order ``--help`` shows them.
+3 an internal error, 130 interrupted (Ctrl-C).  Each subcommand module has
+``NAME``, ``HELP``, optionally ``DESCRIPTION``, ``add_arguments(parser)`` and
+``run(args) -> exit status``; :data:`SUBCOMMANDS` lists them in the order
+``--help`` shows them.
+
+This module is kept light: everything else (the parser, the subcommands, numpy)
+is imported inside :func:`main`, so that Ctrl-C at any moment, even during those
+imports, ends with one line and status 130 rather than a traceback.
 """
 
 from __future__ import annotations
 
-import argparse
-import logging
 import sys
-
-from ..cautions import CAUTION
-from ..errors import FeaError
-from ..version import __version__
-from . import bounds, brace, check, init, report, sensitivity, size, sweep
-from .common import EXIT_BAD_INPUT, EXIT_FAILED_CHECK, EXIT_INTERNAL, EXIT_OK, Parser
 
 __all__ = ["main", "build_parser", "SUBCOMMANDS", "EXIT_OK", "EXIT_FAILED_CHECK", "EXIT_BAD_INPUT", "EXIT_INTERNAL"]
 
 
-#: Every subcommand, in the order of ``stanchion --help``.
-SUBCOMMANDS = (
-    check,
-    init,
-    size,
-    report,
-    sweep,
-    brace,
-    sensitivity,
-    bounds,
-)
-
-
-def build_parser() -> argparse.ArgumentParser:
-    p = Parser(
-        prog="stanchion",
-        description="Buckling and design checks of single compression members: partial end fixity, steps and "
-                    "tapers, braces of finite stiffness, loads at several heights. " + CAUTION,
-    )
-    p.add_argument("--version", action="version", version=f"stanchion {__version__}")
-    p.add_argument("--debug", action="store_true", help="show tracebacks and debug logging")
-    sub = p.add_subparsers(dest="command", metavar="COMMAND", parser_class=Parser)
-    for cmd in SUBCOMMANDS:
-        sp = sub.add_parser(cmd.NAME, help=cmd.HELP, description=getattr(cmd, "DESCRIPTION", cmd.HELP))
-        cmd.add_arguments(sp)
-        sp.add_argument("--debug", action="store_true", default=argparse.SUPPRESS, help=argparse.SUPPRESS)
-    return p
-
-
 def main(argv: list[str] | None = None) -> int:
-    parser = build_parser()
-    args = parser.parse_args(argv)
-    debug = bool(getattr(args, "debug", False))
-    logging.basicConfig(level=logging.DEBUG if debug else logging.WARNING, format="%(name)s: %(message)s")
-    if args.command is None:
-        parser.print_help()
-        return EXIT_OK
-    run = next(cmd.run for cmd in SUBCOMMANDS if cmd.NAME == args.command)
+    """Run the command with ``argv`` (default: the process's arguments); the exit status."""
     try:
-        return run(args)
-    except FeaError as exc:
-        if debug:
-            raise
-        where = f"{args.case}: " if getattr(args, "case", None) else ""
-        print(f"stanchion: error: {where}{exc}", file=sys.stderr)
-        return EXIT_BAD_INPUT
-    except KeyboardInterrupt:  # pragma: no cover
+        from .app import main as run_command
+
+        return run_command(argv)
+    except KeyboardInterrupt:
         print("stanchion: interrupted", file=sys.stderr)
         return 130
-    except Exception as exc:  # pragma: no cover - a bug, not bad input
-        if debug:
-            raise
-        print(f"stanchion: internal error: {type(exc).__name__}: {exc} (run with --debug for details)",
-              file=sys.stderr)
-        return EXIT_INTERNAL
 
 
-if __name__ == "__main__":  # pragma: no cover
-    sys.exit(main())
+def __getattr__(name: str):
+    if name in __all__:
+        from . import app
+
+        return getattr(app, name)
+    raise AttributeError(f"module 'fea.cli' has no attribute {name!r}")

@@ -23,9 +23,10 @@ def run(args: argparse.Namespace) -> int:
     from ..study.paths import parse_key
     from ..study.run import case_bounds
     from ..version import __version__
-    from .study_common import finish, load_study
+    from .study_common import finish, load_study, plan_outputs
 
     study, spec = load_study(args)
+    plan = plan_outputs(args)
     if args.spring:
         ranges = []
         for k, lo, hi in args.spring:
@@ -39,4 +40,4 @@ def run(args: argparse.Namespace) -> int:
     else:
         raise FeaError("no uncertain spring: give --spring KEY LOW HIGH or [[study.bounds.spring]] in the case")
     cb = case_bounds(study, ranges)
-    return finish(args, bounds_dict(study, cb, __version__), lambda: bounds_lines(study, cb))
+    return finish(args, plan, bounds_dict(study, cb, __version__), lambda: bounds_lines(study, cb))

@@ -28,10 +28,11 @@ def run(args: argparse.Namespace) -> int:
     from ..io.study_output import brace_dict, brace_lines
     from ..study.run import case_brace
     from ..version import __version__
-    from .study_common import check_plot, finish, load_study
+    from .study_common import check_plot, finish, load_study, plan_outputs
 
     study, spec = load_study(args)
     check_plot(args)
+    plan = plan_outputs(args)
     b = spec.brace
     tables = tuple(args.restraint) if args.restraint else (b.restraints if b else None)
     if not tables:
@@ -47,4 +48,4 @@ def run(args: argparse.Namespace) -> int:
         from ..plot.study import plot_brace
 
         figure = plot_brace(cb.result, title=study.case.title, display=study.case.display)
-    return finish(args, data, lambda: brace_lines(study, cb, args.plot), figure=figure)
+    return finish(args, plan, data, lambda: brace_lines(study, cb, args.plot), figure=figure)

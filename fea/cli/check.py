@@ -10,6 +10,7 @@ from pathlib import Path
 
 from ..errors import FeaError
 from .common import EXIT_FAILED_CHECK, EXIT_OK, units_argument
+from .outputs import OutputPlan, add_no_clobber, figure_writer
 
 NAME = "check"
 HELP = "analyse a case file and print a summary"
@@ -29,11 +30,11 @@ def add_arguments(c: argparse.ArgumentParser) -> None:
     c.add_argument("--modes", type=int, metavar="N", help="number of modes (default: the case's, else 3)")
     c.add_argument("--only-buckling", action="store_true",
                    help="skip the optional analyses the case declares (imperfection, design)")
+    add_no_clobber(c)
 
 
 def run(args: argparse.Namespace) -> int:
     from ..pipeline import ANALYSES, load_case, result_json, run_case, summary
-    from ..util.files import write_atomic
 
     t0 = time.perf_counter()
     case = load_case(args.case)
@@ -42,6 +43,11 @@ def run(args: argparse.Namespace) -> int:
     for f in args.plot:
         if Path(f).suffix.lower() not in (".png", ".svg", ".pdf"):
             raise FeaError(f"--plot: {f!r} has no known extension: expected .png, .svg or .pdf")
+    plan = OutputPlan([args.case], no_clobber=args.no_clobber)
+    if args.json and args.json != "-":
+        plan.check(args.json, "--json")
+    for f in args.plot:
+        plan.check(f, "--plot")
     skip = tuple(a.name for a in ANALYSES) if args.only_buckling else ()
     res = run_case(case, n_modes=args.modes, skip=skip)
     display = args.units or case.display
@@ -50,13 +56,12 @@ def run(args: argparse.Namespace) -> int:
     data = result_json(res)
     text = json.dumps(data, indent=2, allow_nan=False) if args.json else None
     if args.json and args.json != "-":
-        write_atomic(args.json, text + "\n")
+        plan.add(args.json, text + "\n", "--json")
     for f in args.plot:
-        from ..plot import save_figure
-
         p = Path(f)
         for name, fig in figures.items():
-            save_figure(fig, p if name == "" else p.with_name(f"{p.stem}-{name}{p.suffix}"))
+            plan.add(p if name == "" else p.with_name(f"{p.stem}-{name}{p.suffix}"), figure_writer(fig), "--plot")
+    plan.write()
     if args.json == "-":
         print(text)
     else:

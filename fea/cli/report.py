@@ -14,6 +14,7 @@ from pathlib import Path
 
 from ..errors import FeaError
 from .common import EXIT_FAILED_CHECK, EXIT_OK
+from .outputs import OutputPlan, add_no_clobber
 
 NAME = "report"
 HELP = "write the calculation record of a case: one self-contained HTML file, optionally Markdown"
@@ -41,6 +42,7 @@ def add_arguments(p: argparse.ArgumentParser) -> None:
                    help="leave out the optional analyses the case declares (imperfection, design)")
     p.add_argument("--date", type=_date, metavar="YYYY-MM-DD",
                    help="date printed on the record (default: today)")
+    add_no_clobber(p)
 
 
 def _display(text: str):
@@ -55,24 +57,23 @@ def _display(text: str):
         raise FeaError(f"--units: {text!r}: {exc}") from None
 
 
-def _check_target(path: Path, suffix: str, option: str) -> None:
+def _check_target(plan: OutputPlan, path: Path, suffix: str, option: str) -> None:
     if path.suffix.lower() != suffix:
         raise FeaError(f"{option}: {str(path)!r} should end in {suffix}")
-    if not (path.parent if str(path.parent) else Path(".")).is_dir():
-        raise FeaError(f"{option}: folder {str(path.parent)!r} does not exist")
+    plan.check(path, option)
 
 
 def run(args: argparse.Namespace) -> int:
     from ..pipeline import ANALYSES, REPORT_PARTS, load_case, run_case
     from ..report import build_markdown, build_report, report_figures
-    from ..util.files import write_atomic
 
     case = load_case(args.case)
     out = Path(args.output) if args.output else Path(Path(args.case).stem + ".html")
-    _check_target(out, ".html", "-o")
+    plan = OutputPlan([args.case], no_clobber=args.no_clobber)
+    _check_target(plan, out, ".html", "-o")
     md = Path(args.markdown) if args.markdown else None
     if md is not None:
-        _check_target(md, ".md", "--markdown")
+        _check_target(plan, md, ".md", "--markdown")
     if args.modes is not None and not 1 <= args.modes <= 50:
         raise FeaError(f"--modes: expected a whole number from 1 to 50, got {args.modes}")
     if args.units:
@@ -85,16 +86,14 @@ def run(args: argparse.Namespace) -> int:
     figures = report_figures(res)
     date = args.date or datetime.date.today().isoformat()
     html_text = build_report(res, figures=figures, parts=REPORT_PARTS, warnings=raised, date=date)
-    files: list[tuple[Path, str]] = []
     if md is not None:
         links = {name: f"{md.stem}-{name}.svg" for name in figures}
         for name, svg in figures.items():
-            files.append((md.with_name(links[name]), _standalone_svg(svg)))
-        files.append((md, build_markdown(res, figures=figures, parts=REPORT_PARTS, warnings=raised, date=date,
-                                            figure_files=links)))
-    files.append((out, html_text))
-    for path, text in files:
-        write_atomic(path, text)
+            plan.add(md.with_name(links[name]), _standalone_svg(svg), "--markdown")
+        plan.add(md, build_markdown(res, figures=figures, parts=REPORT_PARTS, warnings=raised, date=date,
+                                    figure_files=links), "--markdown")
+    plan.add(out, html_text, "-o")
+    plan.write()
     print(f"wrote {out}" + (f" and {md}" if md is not None else ""))
     design = res.extras.get("design")
     return EXIT_OK if design is None or design.passed else EXIT_FAILED_CHECK

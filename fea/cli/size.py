@@ -10,6 +10,7 @@ import json
 from pathlib import Path
 
 from ..errors import CaseError
+from .outputs import OutputPlan, add_no_clobber, figure_writer
 
 NAME = "size"
 HELP = ("choose the lightest section of a catalogue that passes the case's [design] check, "
@@ -33,6 +34,7 @@ def add_arguments(p: argparse.ArgumentParser) -> None:
     p.add_argument("--json", nargs="?", const="-", metavar="FILE",
                    help="write the JSON result to FILE, or to standard output instead of the summary")
     p.add_argument("--plot", metavar="FILE", help="draw utilisation against mass of every candidate (.png, .svg, .pdf)")
+    add_no_clobber(p)
 
 
 def _segment_indices(case, refs: list[str]) -> list[int]:
@@ -54,7 +56,6 @@ def run(args: argparse.Namespace) -> int:
     from ..io.catalogue import load_catalogue
     from ..io.sizing_output import sizing_json, sizing_lines
     from ..pipeline import load_case
-    from ..util.files import write_atomic
 
     case = load_case(args.case)
     if "design" not in case.extras:
@@ -63,6 +64,11 @@ def run(args: argparse.Namespace) -> int:
         raise CaseError("--top", f"{args.top} must be 1 or more")
     if args.plot and Path(args.plot).suffix.lower() not in (".png", ".svg", ".pdf"):
         raise CaseError("--plot", f"{args.plot!r} has no known extension: expected .png, .svg or .pdf")
+    plan = OutputPlan([args.case, args.catalogue], no_clobber=args.no_clobber)
+    if args.json and args.json != "-":
+        plan.check(args.json, "--json")
+    if args.plot:
+        plan.check(args.plot, "--plot")
     cands = load_catalogue(args.catalogue)
     if args.shape:
         from ..io.section_input import SHAPE_ALIASES
@@ -83,11 +89,10 @@ def run(args: argparse.Namespace) -> int:
 
         fig = plot_candidates(result, title=case.title).figure
     if args.json and args.json != "-":
-        write_atomic(args.json, text + "\n")
+        plan.add(args.json, text + "\n", "--json")
     if fig is not None:
-        from ..plot import save_figure
-
-        save_figure(fig, args.plot)
+        plan.add(args.plot, figure_writer(fig), "--plot")
+    plan.write()
     if args.json == "-":
         print(text)
     else:

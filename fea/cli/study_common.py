@@ -16,6 +16,7 @@ from typing import TYPE_CHECKING, Callable
 
 from ..errors import FeaError
 from .common import EXIT_OK
+from .outputs import OutputPlan, add_no_clobber, figure_writer
 
 if TYPE_CHECKING:
     from ..model.case import Case
@@ -23,7 +24,7 @@ if TYPE_CHECKING:
     from ..study.target import StudyCase
 
 __all__ = ["rebuild_case", "study_from_text", "load_study", "add_common", "check_plot", "jobs", "Progress",
-           "finish"]
+           "finish", "plan_outputs"]
 
 
 def rebuild_case(document: dict) -> Case:
@@ -65,12 +66,25 @@ def add_common(p: argparse.ArgumentParser, csv: bool = False, plot: bool = False
     if plot:
         p.add_argument("--plot", metavar="FILE", action="append", default=[],
                        help="draw the chart to FILE (.png, .svg or .pdf); may be repeated")
+    add_no_clobber(p)
 
 
 def check_plot(args: argparse.Namespace) -> None:
     for f in getattr(args, "plot", None) or []:
         if Path(f).suffix.lower() not in (".png", ".svg", ".pdf"):
             raise FeaError(f"--plot: {f!r} has no known extension: expected .png, .svg or .pdf")
+
+
+def plan_outputs(args: argparse.Namespace) -> OutputPlan:
+    """Every output file of the command checked, before the study runs."""
+    plan = OutputPlan([args.case], no_clobber=args.no_clobber)
+    if getattr(args, "json", None) and args.json != "-":
+        plan.check(args.json, "--json")
+    if getattr(args, "csv", None):
+        plan.check(args.csv, "--csv")
+    for f in getattr(args, "plot", None) or []:
+        plan.check(f, "--plot")
+    return plan
 
 
 def jobs(args: argparse.Namespace, spec: StudySpec) -> int:
@@ -103,19 +117,17 @@ class Progress:
         sys.stderr.flush()
 
 
-def finish(args: argparse.Namespace, data: dict, lines: Callable[[], list[str]], csv: str | None = None,
-           figure=None) -> int:
-    """Write the JSON (and CSV, and the chart to every ``--plot`` file), then print the JSON or the summary."""
-    from ..util.files import write_atomic
-
+def finish(args: argparse.Namespace, plan: OutputPlan, data: dict, lines: Callable[[], list[str]],
+           csv: str | None = None, figure=None) -> int:
+    """Write the JSON (and CSV, and the chart to every ``--plot`` file) all together, then print the JSON or
+    the summary."""
     if getattr(args, "json", None) and args.json != "-":
-        write_atomic(args.json, json.dumps(data, indent=1, allow_nan=False) + "\n")
+        plan.add(args.json, json.dumps(data, indent=1, allow_nan=False) + "\n", "--json")
     if csv is not None and getattr(args, "csv", None):
-        write_atomic(args.csv, csv)
+        plan.add(args.csv, csv, "--csv")
     for f in getattr(args, "plot", None) or []:
-        from ..plot import save_figure
-
-        save_figure(figure, f)
+        plan.add(f, figure_writer(figure), "--plot")
+    plan.write()
     if args.json == "-":
         print(json.dumps(data, indent=1, allow_nan=False))
         return EXIT_OK

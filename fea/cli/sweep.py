@@ -35,6 +35,7 @@ def _per_param(values, i: int, default):
 
 def _parameters(args: argparse.Namespace, spec) -> tuple[list, tuple[int, ...] | None, str]:
     """The swept parameters (``--param`` or the case's [study.sweep]), the segments and the method."""
+    from ..io.limits import check_sweep_points
     from ..study.paths import parse_key
     from ..study.spec import ParameterSpec
 
@@ -60,6 +61,7 @@ def _parameters(args: argparse.Namespace, spec) -> tuple[list, tuple[int, ...] |
             segments = tuple(int(s) - 1 for s in args.segments.split(","))
         except ValueError:
             raise FeaError(f"--segments: expected numbers such as '1,3', got {args.segments!r}") from None
+    check_sweep_points((p.points for p in params), "--points")
     return params, segments, args.method or method
 
 
@@ -68,10 +70,11 @@ def run(args: argparse.Namespace) -> int:
     from ..study.paths import parse_key
     from ..study.sweep import make_range, sweep
     from ..version import __version__
-    from .study_common import Progress, check_plot, finish, jobs, load_study
+    from .study_common import Progress, check_plot, finish, jobs, load_study, plan_outputs
 
     study, spec = load_study(args)
     check_plot(args)
+    plan = plan_outputs(args)
     params, segments, method = _parameters(args, spec)
     ranges = [make_range(study, parse_key(p.key), p.start, p.stop, p.points, p.scale) for p in params]
     res = sweep(study, ranges, segments=segments, method=method, jobs=jobs(args, spec), progress=Progress("sweep"))
@@ -81,4 +84,4 @@ def run(args: argparse.Namespace) -> int:
         from ..plot.study import plot_sweep
 
         figure = plot_sweep(res, title=study.case.title, display=study.case.display)
-    return finish(args, data, lambda: sweep_lines(study, res, args.plot), csv=sweep_csv(res), figure=figure)
+    return finish(args, plan, data, lambda: sweep_lines(study, res, args.plot), csv=sweep_csv(res), figure=figure)

@@ -16,6 +16,7 @@ from __future__ import annotations
 
 import hashlib
 import math
+import re
 import tomllib
 from dataclasses import dataclass
 from pathlib import Path
@@ -26,6 +27,8 @@ from ..errors import CaseError, ModelError
 from ..model import Column, DistributedLoad, Foundation, LeaningLoad, PointLoad, Restraint, Segment
 from ..model.case import Case, SegmentInfo, TableRef
 from ..units import DisplayUnits, parse
+from ..util.checks import as_text
+from .limits import MAX_CASE_BYTES, MAX_MODES, check_counts, read_limited
 from .section_input import parse_section
 from .tables import AXES, Stations, as_bool, as_str, as_table, as_tables, axes, check_keys, positive, spring
 
@@ -61,28 +64,39 @@ _NO_TABLES: Mapping[str, TableParser] = MappingProxyType({})
 def load_case(path: str | Path, tables: Mapping[str, TableParser] = _NO_TABLES) -> Case:
     """Read and validate a case file (``tables``: parsers of the optional tables it may hold)."""
     p = Path(path)
-    try:
-        data = p.read_bytes()
-    except FileNotFoundError:
-        raise CaseError("", f"case file {str(p)!r} does not exist") from None
-    except IsADirectoryError:
-        raise CaseError("", f"{str(p)!r} is a folder, not a case file") from None
-    except OSError as exc:
-        raise CaseError("", f"cannot read case file {str(p)!r}: {exc.strerror}") from None
+    data = read_limited(p, MAX_CASE_BYTES, "", "case file")
     return parse_case(data, source=str(p), tables=tables)
 
 
+#: tomllib messages that quote a key of the file; only the message kind and position are kept.
+_KEY_MESSAGE = re.compile(r"^(Cannot declare|Cannot mutate immutable namespace|Cannot redefine namespace|"
+                          r"Duplicate inline table key) .*? (\(at [^()]*\))$")
+
+
+def _toml_message(exc: tomllib.TOMLDecodeError) -> str:
+    """tomllib's message without any key or text of the file (one character at most, escaped)."""
+    msg = str(exc).splitlines()[0] if str(exc) else "invalid TOML"
+    return _KEY_MESSAGE.sub(r"\1 a key twice \2" if "declare" in msg else r"\1 \2", msg)
+
+
 def parse_case(data: bytes | str, source: str = "", tables: Mapping[str, TableParser] = _NO_TABLES) -> Case:
-    """Parse case-file text (TOML) into a :class:`Case`."""
+    """Parse case-file text (TOML) into a :class:`Case`; a UTF-8 byte-order mark at the start is skipped."""
     raw = data.encode("utf-8") if isinstance(data, str) else data
+    if len(raw) > MAX_CASE_BYTES:
+        raise CaseError("", f"the case file is larger than the limit of {MAX_CASE_BYTES:,} bytes")
     try:
         text = raw.decode("utf-8")
     except UnicodeDecodeError:
         raise CaseError("", "the case file is not UTF-8 text") from None
+    text = text.removeprefix("\ufeff")
+    if "\x00" in text:
+        raise CaseError("", "the case file is not a text file")
     try:
         doc = tomllib.loads(text)
     except tomllib.TOMLDecodeError as exc:
-        raise CaseError("", f"TOML syntax error: {exc}") from None
+        raise CaseError("", f"TOML syntax error: {_toml_message(exc)}") from None
+    except RecursionError:
+        raise CaseError("", "TOML syntax error: arrays or tables nested too deeply") from None
     return parse_document(doc, source=source, sha256=hashlib.sha256(raw).hexdigest(), tables=tables)
 
 
@@ -92,7 +106,8 @@ def parse_document(doc: dict, source: str = "", sha256: str = "",
     if not doc:
         raise CaseError("", "the case file is empty: it needs at least one [[segment]] and a [[restraint]]")
     check_keys(doc, "", TOP_KEYS | set(tables))
-    title = as_str(doc.get("title", ""), "title")
+    check_counts(doc)
+    title = as_text(doc.get("title", ""), "title")
     display = _display_units(doc)
     n_modes, tol = _analysis_options(doc)
     E, fy, mat = _material(doc)
@@ -142,8 +157,8 @@ def _analysis_options(doc: dict) -> tuple[int, float]:
     analysis = as_table(doc.get("analysis", {}), "analysis")
     check_keys(analysis, "analysis", {"modes", "tolerance"})
     n_modes = analysis.get("modes", DEFAULT_MODES)
-    if isinstance(n_modes, bool) or not isinstance(n_modes, int) or not 1 <= n_modes <= 50:
-        raise CaseError("analysis.modes", f"expected a whole number from 1 to 50, got {n_modes!r}")
+    if isinstance(n_modes, bool) or not isinstance(n_modes, int) or not 1 <= n_modes <= MAX_MODES:
+        raise CaseError("analysis.modes", f"expected a whole number from 1 to {MAX_MODES}, got {n_modes!r}")
     tol = analysis.get("tolerance", DEFAULT_TOLERANCE)
     if isinstance(tol, bool) or not isinstance(tol, (int, float)) or not 1e-12 <= tol <= 1e-2:
         raise CaseError("analysis.tolerance", f"expected a relative tolerance from 1e-12 to 1e-2, got {tol!r}")

@@ -17,13 +17,14 @@ from __future__ import annotations
 
 import csv
 import io
-import math
 import re
 from pathlib import Path
 
 from ..design.sizing import Candidate
-from ..errors import CaseError
-from ..units import parse, registry
+from ..errors import CaseError, UnitError
+from ..quantity import GrammarError, split_quantity
+from ..units import parse
+from .limits import MAX_CATALOGUE_BYTES, MAX_CATALOGUE_ROWS, check_count, read_limited
 
 __all__ = ["Candidate", "load_catalogue", "parse_catalogue"]
 
@@ -32,45 +33,68 @@ _PROPS = {"A": "area", "I_major": "second moment of area", "I_minor": "second mo
 
 
 def load_catalogue(path: str | Path) -> tuple[Candidate, ...]:
-    """Read a catalogue CSV file."""
+    """Read a catalogue CSV file (at most :data:`~fea.io.limits.MAX_CATALOGUE_BYTES`).
+
+    Errors name the file; the content of a file that is not a catalogue is never quoted.
+    """
     p = Path(path)
+    raw = read_limited(p, MAX_CATALOGUE_BYTES, "--catalogue", "catalogue")
     try:
-        text = p.read_text(encoding="utf-8")
-    except FileNotFoundError:
-        raise CaseError("--catalogue", f"file {str(p)!r} does not exist") from None
-    except (OSError, UnicodeDecodeError) as exc:
-        raise CaseError("--catalogue", f"cannot read {str(p)!r}: {exc}") from None
+        text = raw.decode("utf-8")
+    except UnicodeDecodeError:
+        raise CaseError("--catalogue", f"{str(p)!r} is not a UTF-8 text file, so not a catalogue") from None
+    if "\x00" in text:
+        raise CaseError("--catalogue", f"{str(p)!r} is not a text file, so not a catalogue")
     return parse_catalogue(text, source=p.name)
 
 
-def _mass(where: str, text: str) -> float:
-    ureg = registry()
+def _cell(where: str, text: str, dimension: str) -> float:
+    """A catalogue cell with the unit of its column, by the grammar of case-file values (SI)."""
     try:
-        q = ureg.Quantity(text)
-    except Exception:
-        raise CaseError(where, f"{text!r} is not a mass per length such as '61.3 kg/m'") from None
-    if not isinstance(q, ureg.Quantity) or q.dimensionality != ureg.get_dimensionality("[mass] / [length]"):
-        raise CaseError(where, f"{text!r} is not a mass per length: expected units like kg/m")
-    v = float(q.to_base_units().magnitude)
-    if not (math.isfinite(v) and v > 0):
-        raise CaseError(where, f"{text!r} must be a positive mass per length")
-    return v
+        return parse(where, text, dimension)
+    except UnitError as exc:
+        raise CaseError(exc.field, exc.message) from None
+
+
+def _header(source: str, lineno: int, cells: list[str]) -> list[tuple[str, str]]:
+    """(key, unit) of every header cell; a file whose first line is not such a header is not quoted."""
+    header = []
+    for n, cell in enumerate(cells, start=1):
+        m = _HEADER.match(cell)
+        if not m or len(cell) > 40:
+            raise CaseError(source, f"is not a section catalogue: cell {n} of its first line is not 'key' or "
+                                    "'key [unit]' (a catalogue starts with a header such as "
+                                    "'name,shape,b [mm],h [mm],tf [mm],tw [mm],r [mm],mass [kg/m]')")
+        key, unit = m.group(1), (m.group(2) or "").strip()
+        if unit:
+            try:
+                split_quantity(f"1 {unit}")
+            except GrammarError:
+                raise CaseError(f"{source}:{lineno}.{key}", f"the unit {unit!r} in the header is not a unit "
+                                                            "expression such as 'mm', 'cm^4' or 'kg/m'") from None
+        header.append((key, unit))
+    return header
 
 
 def parse_catalogue(text: str, source: str = "catalogue") -> tuple[Candidate, ...]:
-    """Parse catalogue CSV text into candidates (see the module docstring for the format)."""
+    """Parse catalogue CSV text into candidates (see the module docstring for the format).
+
+    A UTF-8 byte-order mark at the start is skipped.
+    """
     from .section_input import build_shape
 
+    if len(text) > MAX_CATALOGUE_BYTES:
+        raise CaseError(source, f"the catalogue is larger than the limit of {MAX_CATALOGUE_BYTES:,} bytes")
+    text = text.removeprefix("\ufeff")
     lines = [(n + 1, ln) for n, ln in enumerate(text.splitlines()) if ln.strip() and not ln.lstrip().startswith("#")]
     if not lines:
         raise CaseError(source, "the catalogue is empty: it needs a header line and at least one section")
-    rows = list(csv.reader(io.StringIO("\n".join(ln for _, ln in lines))))
-    header = []
-    for cell in rows[0]:
-        m = _HEADER.match(cell)
-        if not m:
-            raise CaseError(f"{source}:{lines[0][0]}", f"header cell {cell!r} is not 'key' or 'key [unit]'")
-        header.append((m.group(1), (m.group(2) or "").strip()))
+    check_count(len(lines) - 1, MAX_CATALOGUE_ROWS, source, "sections")
+    try:
+        rows = list(csv.reader(io.StringIO("\n".join(ln for _, ln in lines))))
+    except csv.Error:
+        raise CaseError(source, "is not a readable CSV file") from None
+    header = _header(source, lines[0][0], rows[0])
     keys = [k for k, _ in header]
     for need in ("name", "mass"):
         if need not in keys:
@@ -88,12 +112,14 @@ def parse_catalogue(text: str, source: str = "catalogue") -> tuple[Candidate, ..
         if "mass" not in cells:
             raise CaseError(f"{where}.mass", "missing: every section needs its mass per length")
         u, v = cells["mass"]
-        mass = _mass(f"{where}.mass", f"{v} {u}".strip())
+        mass = _cell(f"{where}.mass", f"{v} {u}".strip(), "mass per length")
+        if not mass > 0:
+            raise CaseError(f"{where}.mass", "must be a positive mass per length")
         shape = cells.get("shape", ("", "properties"))[1].lower()
 
         def q(key: str, dimension: str) -> float:
             u, v = cells[key]
-            return parse(f"{where}.{key}", f"{v} {u}".strip(), dimension)
+            return _cell(f"{where}.{key}", f"{v} {u}".strip(), dimension)
 
         if shape in ("", "properties"):
             missing = [k for k in _PROPS if k not in cells]
@@ -110,8 +136,8 @@ def parse_catalogue(text: str, source: str = "catalogue") -> tuple[Candidate, ..
         out.append(Candidate(name, shape, p.area, p.I_major, p.I_minor, mass, lineno))
     if not out:
         raise CaseError(source, "the catalogue lists no sections")
-    names = [c.name for c in out]
-    dup = next((n for n in names if names.count(n) > 1), None)
+    seen: set[str] = set()
+    dup = next((c.name for c in out if c.name in seen or seen.add(c.name)), None)
     if dup is not None:
         raise CaseError(source, f"section name {dup!r} appears more than once")
     return tuple(out)

@@ -4,11 +4,13 @@ from __future__ import annotations
 
 import difflib
 import math
+import re
 from typing import Any
 
 from ..design.check import PARAMETERS, PER_AXIS, DesignSpec
 from ..design.curves import AS4100_ALPHA_B, BS5950_ROBERTSON, EN1993_IMPERFECTION
 from ..errors import CaseError, ModelError
+from ..quantity import NUMBER_PATTERN
 from ..units import parse
 from ..util.checks import as_number, check_keys
 
@@ -20,14 +22,16 @@ def _number(value: Any, path: str, low: float = 0.0, high: float = math.inf, low
     return float(as_number(value, path, low, high, low_open=low_open))
 
 
+_RATIO = re.compile(rf"^\s*({NUMBER_PATTERN})\s*/\s*({NUMBER_PATTERN})\s*$")
+
+
 def _rankine_a(value: Any, path: str) -> float:
-    if isinstance(value, str) and "/" in value:
-        num, _, den = value.partition("/")
-        try:
-            a = float(num) / float(den)
-        except (ValueError, ZeroDivisionError):
-            raise CaseError(path, f"{value!r} is not a number such as '1/7500'") from None
-        return _number(a, path)
+    """Rankine's constant: a number, or a ratio of two plain numbers such as ``"1/7500"`` (nothing else)."""
+    if isinstance(value, str):
+        m = _RATIO.match(value)
+        if m is None or float(m.group(2)) == 0.0:
+            raise CaseError(path, f"{value[:40]!r} is not a number such as 1.33e-4 or a ratio such as '1/7500'")
+        return _number(float(m.group(1)) / float(m.group(2)), path)
     return _number(value, path)
 
 

@@ -58,6 +58,7 @@ from ..model.imperfection import (
 )
 from ..solve.imperfect_case import as_case_error
 from ..units import parse
+from .limits import MAX_LOADS, MAX_OFFSETS, check_count
 from .tables import AXES, Stations, as_bool, check_keys
 
 __all__ = ["parse_imperfection", "parse_lateral"]
@@ -135,6 +136,7 @@ def _offsets_bow(table: dict, station: Stations) -> Imperfection:
     if not isinstance(raw, list) or len(raw) < 2:
         raise CaseError("imperfection.offsets", "expected at least two [height, offset] pairs such as "
                                                 "[[\"1.0 m\", \"3 mm\"], [\"2.0 m\", \"4 mm\"]]")
+    check_count(len(raw), MAX_OFFSETS, "imperfection.offsets", "offsets")
     pts = []
     for j, pair in enumerate(raw):
         pj = f"imperfection.offsets[{j + 1}]"
@@ -226,6 +228,8 @@ def _rows(table: dict, key: str) -> list[dict]:
     v = table.get(key, [])
     if isinstance(v, dict):
         v = [v]
+    if isinstance(v, list):
+        check_count(len(v), MAX_LOADS, f"lateral.{key}", f"[[lateral.{key}]] tables")
     if not isinstance(v, list) or not all(isinstance(t, dict) for t in v):
         raise CaseError(f"lateral.{key}", f"expected [[lateral.{key}]] tables, got {v!r}")
     return v

@@ -7,6 +7,7 @@ from typing import Any
 
 from ..design.sizing import SizingResult
 from ..units import DisplayUnits
+from ..util.checks import one_line
 from ..util.numbers import finite_or_none
 
 __all__ = ["sizing_json", "sizing_lines"]
@@ -47,7 +48,7 @@ def sizing_lines(s: SizingResult, title: str, d: DisplayUnits, top: int = 5) -> 
 
     metric = d.length in ("m", "cm", "mm")
     su, sf = ("mm", 1e-3) if metric else ("in", 0.0254)
-    out = [f"Sizing: {title or '(untitled case)'} by {s.standard}",
+    out = [f"Sizing: {one_line(title) or '(untitled case)'} by {s.standard}",
            f"  segments taking the section: {', '.join(str(i + 1) for i in s.segments)}; "
            f"a section passes when every utilisation <= {s.target:g}; every candidate re-solved",
            "  the case's [design] parameters (curves, constants) are applied to every candidate"]

@@ -39,6 +39,7 @@ import math
 from ..errors import CaseError
 from ..study.paths import parse_key
 from ..study.spec import BoundSpec, BraceSpec, ParameterSpec, StudySpec, SweepSpec
+from .limits import MAX_SWEEP_POINTS, check_sweep_points
 
 __all__ = ["parse_study", "parse_sweep"]
 
@@ -87,8 +88,9 @@ def parse_sweep(t: dict, path: str = "study.sweep") -> SweepSpec:
         scale = p.get("scale", "linear")
         if scale not in ("linear", "log"):
             raise CaseError(f"{pp}.scale", f"expected 'linear' or 'log', got {scale!r}")
-        params.append(ParameterSpec(key.text, start, stop, _int(p.get("points", 21), f"{pp}.points", 2, 100_000),
-                                    scale))
+        points = _int(p.get("points", 21), f"{pp}.points", 2, MAX_SWEEP_POINTS)
+        params.append(ParameterSpec(key.text, start, stop, points, scale))
+    check_sweep_points((p.points for p in params), f"{path}.parameter")
     segs = t.get("segments")
     if segs is not None:
         if not isinstance(segs, list) or not segs:

@@ -14,6 +14,7 @@ import numpy as np
 
 from ..cautions import CAUTION
 from ..study.paths import parse_key
+from ..util.checks import one_line
 from ..util.numbers import finite_list
 from ..util.numbers import finite_or_none as _num
 from .summary import fmt
@@ -180,7 +181,7 @@ def stiffness_text(v: float | None, kind: str, d) -> str:
 
 
 def _title(study) -> str:
-    return study.case.title or "(untitled case)"
+    return one_line(study.case.title) or "(untitled case)"
 
 
 def _ending(charts=()) -> list[str]:

@@ -8,6 +8,7 @@ from typing import Any, Callable, Mapping
 from ..cautions import CAUTION
 from ..results import CaseResults
 from ..units import DisplayUnits
+from ..util.checks import one_line
 
 __all__ = ["summary_lines", "fmt"]
 
@@ -29,7 +30,7 @@ def summary_lines(res: CaseResults, display: DisplayUnits | None = None,
     parts = parts or {}
     case = res.case
     d = display or case.display
-    out = [f"{case.title or '(untitled case)'}"]
+    out = [f"{one_line(case.title) or '(untitled case)'}"]
     if case.source:
         out.append(f"case file {case.source}  (sha256 {case.sha256[:12]})")
     out.append(f"height {fmt(d.L(case.height))} {d.length}, {len(case.segments)} segment(s); "

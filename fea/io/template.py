@@ -1,7 +1,8 @@
 """The commented case-file template written by ``stanchion init``."""
 
 TEMPLATE = '''\
-# Stanchion case file (TOML).  Every dimensional value is a string with its unit.
+# Stanchion case file (TOML).  Every dimensional value is a string: one number, then its unit
+# ("4.5 m", "18.2e6 mm^4"): a decimal point, no thousands separators, no arithmetic.
 # Heights are measured from the base; "base" and "top" may be used for the ends.
 # Compression is positive.  Full format: cases/README.md.
 # DEMO TEMPLATE: the numbers below are invented; replace them with your column.
@@ -9,8 +10,8 @@ TEMPLATE = '''\
 title = "My column (edit me)"
 
 [units]                      # display units for the summary and plots
-length = "m"                 # m, mm, ft, in
-force = "kN"                 # N, kN, MN, kip, lbf
+length = "m"                 # m, cm, mm, in, ft
+force = "kN"                 # N, kN, MN, lbf, kip, tf
 
 [material]                   # defaults for every segment
 E = "210 GPa"

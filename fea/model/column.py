@@ -44,6 +44,25 @@ RIGID = math.inf
 STATION_TOL = 1e-9
 
 
+#: Magnitudes (SI) a nonzero input value may have.  Within this window every product the analysis forms
+#: (``E I / L^3``, ``12 E I / (S L^2)``, ``P / (E I)``, energies of unit-normalised modes) stays finite and
+#: normal in double precision, so no subnormal or infinite intermediate can occur; values outside it are
+#: refused with the reason.  Springs may be stiffer (up to :data:`MAX_SPRING`), or ``inf`` for rigid.
+MIN_MAGNITUDE = 1e-30
+MAX_MAGNITUDE = 1e30
+MAX_SPRING = 1e60
+
+#: A segment shorter than this fraction of the column height would merge with its neighbours' stations.
+MIN_SEGMENT_SHARE = 1e-7
+
+
+def _in_range(field_name: str, value: float, unit: str, hi: float = MAX_MAGNITUDE) -> None:
+    """Refuse a nonzero finite value whose magnitude double precision cannot compute with safely."""
+    if value != 0 and not (MIN_MAGNITUDE <= abs(value) <= hi):
+        raise ModelError(field_name, f"{value!r} {unit} is outside the range the analysis can compute with in "
+                                     f"double precision: magnitudes from {MIN_MAGNITUDE:g} to {hi:g} {unit} (SI)")
+
+
 def _positive(field_name: str, value: float | None, unit: str, allow_none: bool = False) -> None:
     if value is None and allow_none:
         return
@@ -51,6 +70,7 @@ def _positive(field_name: str, value: float | None, unit: str, allow_none: bool 
         raise ModelError(field_name, f"expected a number in {unit}, got {value!r}")
     if not math.isfinite(value) or value <= 0.0:
         raise ModelError(field_name, f"must be a positive finite value in {unit}, got {value!r}")
+    _in_range(field_name, value, unit)
 
 
 def _spring(field_name: str, value: float, unit: str) -> None:
@@ -58,11 +78,14 @@ def _spring(field_name: str, value: float, unit: str) -> None:
         raise ModelError(field_name, f"expected a stiffness in {unit}, 'free' or 'rigid', got {value!r}")
     if math.isnan(value) or value < 0.0:
         raise ModelError(field_name, f"must be >= 0 {unit} (0 = free, inf = rigid), got {value!r}")
+    if math.isfinite(value):
+        _in_range(field_name, value, unit, hi=MAX_SPRING)
 
 
 def _finite(field_name: str, value: float, unit: str) -> None:
     if not isinstance(value, (int, float)) or isinstance(value, bool) or not math.isfinite(value):
         raise ModelError(field_name, f"expected a finite number in {unit}, got {value!r}")
+    _in_range(field_name, value, unit)
 
 
 @dataclass(frozen=True, slots=True)
@@ -280,6 +303,10 @@ class Column:
                 raise ModelError(f"segment[{i}]", f"expected a Segment, got {type(seg).__name__}")
         H = self.height
         tol = STATION_TOL * H
+        for i, seg in enumerate(self.segments):
+            if seg.length < MIN_SEGMENT_SHARE * H:
+                raise ModelError(f"segment[{i}]", f"length {seg.length:g} m is less than {MIN_SEGMENT_SHARE:g} of the "
+                                                  f"column height ({H:g} m): too short to resolve in double precision")
 
         def check_at(what: str, x: float) -> None:
             if x < -tol or x > H + tol:

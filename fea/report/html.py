@@ -92,10 +92,25 @@ footer.end { margin-top: 18pt; border-top: 0.8pt solid #111; padding-top: 4pt; f
 
 
 def _css_string(text: str) -> str:
-    return '"' + text.replace("\\", "\\\\").replace('"', '\\"').replace("\n", " ") + '"'
+    """``text`` as a quoted CSS string that is safe inside ``<style>``: every character other than a letter,
+    a digit, a space or plain punctuation is written as a hexadecimal escape, so neither a quote, a
+    backslash, a line break nor ``</style>`` can end the string or the style sheet."""
+    def esc(c: str) -> str:
+        if c.isalnum() and c.isascii() or c in " .,:;-_()#·/'&+=!?%":
+            return c
+        if c in "\n\r\f":
+            return " "
+        return f"\\{ord(c):06x}"
+    return '"' + "".join(esc(c) for c in text) + '"'
+
+
+def _attr(text: str) -> str:
+    """``text`` escaped for an HTML attribute value in double quotes."""
+    return html.escape(str(text), quote=True)
 
 
 def inline(parts) -> str:
+    """Inline parts as HTML; every text is escaped here, whatever its origin."""
     out = []
     for p in parts:
         if isinstance(p, Q):
@@ -141,7 +156,7 @@ def _block(b) -> str:
         return "<ul>" + "".join(f"<li>{inline(i)}</li>" for i in b.items) + "</ul>"
     if isinstance(b, Note):
         label = "Caution." if b.kind == "caution" else "Warning."
-        return f'<div class="note {b.kind}"><span class="label">{label}</span> {inline(b.parts)}</div>'
+        return f'<div class="note {_attr(b.kind)}"><span class="label">{label}</span> {inline(b.parts)}</div>'
     if isinstance(b, Figure):
         return f"<figure>{b.svg}<figcaption>{inline(b.caption)}</figcaption></figure>"
     if isinstance(b, Table):
@@ -180,12 +195,13 @@ def render_html(title: T, ident: list[tuple], brief: list, caution: T, parts: li
     running : text of the printed page footer (case title and short hash)
     """
     ident_rows = "".join(f"<tr><th>{inline(k)}</th><td>{inline(v)}</td></tr>" for k, v in ident)
-    toc = "".join(f'<li><a href="#{p.key}">{html.escape(p.title)}</a></li>' for p in parts)
+    toc = "".join(f'<li><a href="#{_attr(p.key)}">{html.escape(p.title)}</a></li>' for p in parts)
     sections = []
     for n, p in enumerate(parts):
         cls = "part first" if n == 0 else "part"
         body = "\n".join(_block(b) for b in p.blocks)
-        sections.append(f'<section class="{cls}" id="{p.key}">\n<h2>{html.escape(p.title)}</h2>\n{body}\n</section>')
+        sections.append(f'<section class="{cls}" id="{_attr(p.key)}">\n<h2>{html.escape(p.title)}</h2>\n'
+                        f'{body}\n</section>')
     return f"""<!DOCTYPE html>
 <html lang="en">
 <head>

@@ -6,10 +6,16 @@ from .document import Bullets, Calc, Em, Figure, Heading, Note, Para, Part, Q, S
 
 __all__ = ["render_markdown"]
 
-_SPECIAL = str.maketrans({"|": "\\|", "*": "\\*", "_": "\\_", "`": "\\`", "<": "&lt;", ">": "&gt;"})
+#: Characters with a meaning in Markdown (or in the HTML a Markdown reader passes through), written so
+#: that they show as themselves: a backslash first of all, emphasis, code, tables, links, images, headings,
+#: block quotes, lists, entities and tags.
+_SPECIAL = str.maketrans({"\\": "\\\\", "|": "\\|", "*": "\\*", "_": "\\_", "`": "\\`", "[": "\\[",
+                          "]": "\\]", "!": "\\!", "#": "\\#", "~": "\\~", "<": "&lt;", ">": "&gt;",
+                          "&": "&amp;", "\n": " ", "\r": " "})
 
 
 def _esc(text: str) -> str:
+    """``text`` escaped for Markdown inline text (every text from the case passes here)."""
     return text.translate(_SPECIAL)
 
 
@@ -19,7 +25,7 @@ def inline(parts) -> str:
         if isinstance(p, (Q, T)):
             out.append(_esc(p.text))
         elif isinstance(p, Em):
-            out.append(f"*{_esc(p.text)}*" if p.text.strip() else p.text)
+            out.append(f"*{_esc(p.text)}*" if p.text.strip() else _esc(p.text))
         elif isinstance(p, Sub):
             out.append(f"<sub>{inline((p.text,))}</sub>")
         elif isinstance(p, Sup):

@@ -24,12 +24,13 @@ from dataclasses import replace
 
 import numpy as np
 
-from ..assemble import Assembled, assemble
+from ..assemble import Assembled, assemble, element_bending_energies, rayleigh_quotients, residual
 from ..errors import ModelError, SolverError
 from ..formulas import effective_length_factor
-from ..mesh import Mesh, build_mesh
+from ..mesh import Mesh, build_mesh, segment_min_ei
 from ..model import Column
 from ..results import K_AXIAL_RATIO_MIN, K_ENERGY_SHARE_MIN, BucklingResult, SegmentBuckling
+from .solvable import banded_lower, bandwidth, rigid_body_mechanism, scaled_cholesky
 
 __all__ = ["buckling", "solve_assembled", "roundoff_floor", "DENSE_MAX_DOF", "DEFAULT_TOL", "MAX_LEVEL"]
 
@@ -41,42 +42,25 @@ DEFAULT_TOL = 1e-6
 MAX_LEVEL = 8
 
 
-def _cholesky(K: np.ndarray, rcond: float = 1e-13) -> np.ndarray | None:
-    """Cholesky factor, or None when ``K`` is not (numerically) positive definite."""
-    try:
-        C = np.linalg.cholesky(K)
-    except np.linalg.LinAlgError:
-        return None
-    d = np.diagonal(C) ** 2
-    return C if d.min() > rcond * np.max(np.diagonal(K)) else None
+def _diagnose_mechanism(column: Column, mesh: Mesh | None = None, asm: Assembled | None = None) -> str:
+    """Which rigid-body motion no restraint resists (exact: see :mod:`.solvable`)."""
+    return rigid_body_mechanism(column) or "the column is a mechanism (too little restraint)"
 
 
-def _diagnose_mechanism(column: Column, mesh: Mesh, asm: Assembled) -> str:
-    """Which kind of restraint is missing: rigid translation or rotation."""
-    n = asm.n_full
-    x = mesh.x
-    T = np.zeros(n)
-    T[0::2] = 1.0
-    R = np.zeros(n)
-    R[0::2] = x
-    R[1::2] = 1.0
-    Rm = np.stack([T, R], axis=1)[asm.free]
-    E = Rm.T @ asm.K0 @ Rm
-    scale = np.trace(asm.K0) / asm.K0.shape[0] * max(1.0, x[-1] ** 2)
-    w, v = np.linalg.eigh(E)
-    if w[0] > 1e-10 * scale:
-        return "the column is a mechanism (too little restraint)"
-    a, b = v[:, 0]
-    if abs(b) < 1e-9 * max(abs(a), 1e-300):
-        return "no lateral restraint: the column can slide sideways as a rigid body; restrain it laterally"
-    pivot = -a / b
-    supports = [r.at for r in column.restraints if r.lateral > 0]
-    if supports:
-        near = min(supports, key=lambda s: abs(s - pivot))
-        if abs(near - pivot) <= 1e-6 * x[-1]:
-            return (f"the column can rotate as a rigid body about the lateral restraint at {near:.4g} m; "
-                    "add a second lateral restraint or a rotational restraint")
-    return "no lateral restraint: the column can move as a rigid body; add lateral or rotational restraint"
+#: Spread of the stiffness diagonal (largest / smallest) above which the eigenproblem is solved scaled.
+DIAG_SPREAD_SCALED = 1e12
+
+
+def _scaled(A, s: np.ndarray):
+    """``diag(s) A diag(s)`` for a dense or sparse ``A`` (``A`` itself when ``s`` is all ones)."""
+    if np.all(s == 1.0):
+        return A
+    if isinstance(A, np.ndarray):
+        return A * s[:, None] * s[None, :]
+    import scipy.sparse as sp
+
+    S = sp.diags(s)
+    return (S @ A @ S).tocsr()
 
 
 #: Below this size the dense solve uses numpy alone (no scipy import at start-up);
@@ -85,6 +69,7 @@ NUMPY_MAX_DOF = 160
 
 
 def _eig_dense(K: np.ndarray, G: np.ndarray, n_modes: int) -> tuple[np.ndarray, np.ndarray]:
+    """Largest mu of G phi = mu K phi by dense LAPACK (``K`` already scaled to a unit diagonal)."""
     n = K.shape[0]
     m = min(n_modes, n)
     if n <= NUMPY_MAX_DOF:
@@ -98,15 +83,6 @@ def _eig_dense(K: np.ndarray, G: np.ndarray, n_modes: int) -> tuple[np.ndarray, 
 
     mu, vec = sla.eigh(G, K, subset_by_index=[n - m, n - 1], check_finite=False)
     return mu[::-1], vec[:, ::-1]
-
-
-def _banded_lower(A, bw: int) -> np.ndarray:
-    """Lower banded storage (for scipy.linalg.cholesky_banded) of a sparse symmetric matrix."""
-    n = A.shape[0]
-    ab = np.zeros((bw + 1, n))
-    for d in range(bw + 1):
-        ab[d, : n - d] = A.diagonal(-d)
-    return ab
 
 
 def _upper_from_lower(cb: np.ndarray, bw: int) -> np.ndarray:
@@ -124,9 +100,8 @@ def _eig_sparse(K, G, n_modes: int) -> tuple[np.ndarray, np.ndarray]:
     from scipy.sparse.linalg import LinearOperator, eigsh
 
     n = K.shape[0]
-    Kc, Gc = K.tocoo(), G.tocoo()
-    bw = int(max(np.max(np.abs(Kc.row - Kc.col), initial=0), np.max(np.abs(Gc.row - Gc.col), initial=0)))
-    cb = sla.cholesky_banded(_banded_lower(K, bw), lower=True, check_finite=False)
+    bw = bandwidth(K, G)
+    cb = sla.cholesky_banded(banded_lower(K, bw), lower=True, check_finite=False)
     ub = _upper_from_lower(cb, bw)
     Gs = G.tocsr()
 
@@ -155,10 +130,26 @@ def solve_assembled(asm: Assembled, n_modes: int, method: str = "auto") -> tuple
     n = asm.n
     if method == "auto":
         method = "dense" if n <= DENSE_MAX_DOF else "sparse"
-    if method == "dense":
-        mu, vec = _eig_dense(asm.K, asm.G, n_modes)
-    else:
-        mu, vec = _eig_sparse(asm.Ks, asm.Gs, n_modes)
+    # symmetric scaling to a unit diagonal when the diagonal spans many orders of magnitude (segments and
+    # springs of very different stiffness): the same load factors, pivots measured against the matrix's own
+    # scale; vectors are scaled back below.  Ordinary columns are solved as assembled.
+    d = np.asarray((asm.Ks if asm.is_sparse else asm.K).diagonal(), dtype=float)
+    if not np.all(d > 0):
+        raise SolverError("the stiffness matrix has a non-positive diagonal entry: the column cannot be solved")
+    s = 1.0 / np.sqrt(d) if d.max() > DIAG_SPREAD_SCALED * d.min() else np.ones_like(d)
+    with np.errstate(all="ignore"):
+        try:
+            if method == "dense":
+                mu, vec = _eig_dense(_scaled(asm.K, s), _scaled(asm.G, s), n_modes)
+            else:
+                mu, vec = _eig_sparse(_scaled(asm.Ks, s), _scaled(asm.Gs, s), n_modes)
+        except np.linalg.LinAlgError:
+            raise SolverError("the stiffness matrix could not be factorised: stiffness ratios in the column are "
+                              "beyond what double precision can resolve") from None
+        vec = vec * s[:, None]
+    if not (np.all(np.isfinite(mu)) and np.all(np.isfinite(vec))):
+        raise SolverError("the eigensolver returned non-finite values: stiffness ratios in the column are beyond "
+                          "what double precision can resolve")
     scale = np.max(np.abs(mu)) if mu.size else 0.0
     keep = mu > 1e-12 * max(scale, 1e-300)
     mu, vec = mu[keep], vec[:, keep]
@@ -179,24 +170,126 @@ def roundoff_floor(asm: Assembled, v: np.ndarray) -> float:
     return float(np.finfo(float).eps / max(rho, 1e-300))
 
 
+#: Estimated round-off of the matrix solution above which the load factors are re-evaluated as
+#: element-by-element Rayleigh quotients (below it both agree to round-off; ordinary columns keep the
+#: matrix values).
+QUOTIENT_FROM = 1e-9
+
+
+#: Most correction steps of the lowest mode (each costs one banded solve).
+CORRECTION_STEPS = 12
+#: The correction stops once a step changes the quotient by less than this (relative).
+CORRECTION_STOP = 1e-12
+
+
+def _quotient_load_factors(mesh: Mesh, asm: Assembled, lam: np.ndarray, vec: np.ndarray,
+                           floor: float) -> tuple[np.ndarray, np.ndarray, float]:
+    """Load factors as Rayleigh quotients, the lowest mode corrected, and the estimated round-off.
+
+    The assembled matrix carries round-off of order ``eps * EI / L_e^3 * w^2`` that cancels
+    down to ``EI * curvature^2`` (up to ``(H / L_e)^4`` relative: very fine meshes, or a far stiffer
+    part moving almost rigidly).  The quotient and the residual ``K v - lam G v`` are evaluated
+    element by element without that cancellation (:mod:`fea.assemble`), and the lowest mode is
+    corrected by ``v <- v - K~^-1 r`` with the factor ``K~`` of the rounded matrix (iterative
+    refinement: it converges while the rounded matrix is within a small fraction of the lowest
+    stiffness, and leaves the quotient error at the round-off of the chord rotations,
+    ``eps * (H / L_e)^2``).  A mode held mainly by springs (a near-mechanism) keeps the matrix
+    estimate ``floor``: there the springs, not the members, limit the accuracy.
+    """
+    import scipy.linalg as sla
+
+    with np.errstate(all="ignore"):
+        q, share = rayleigh_quotients(mesh, asm, vec)
+        if not (np.isfinite(q[0]) and q[0] > 0):
+            return lam, vec, floor
+        fac = scaled_cholesky(asm.Ks if asm.is_sparse else asm.K)
+        v, q0, change = vec[:, 0].copy(), float(q[0]), 1.0
+        if fac is not None:
+            cb, s, bw = fac
+            ub = _upper_from_lower(cb, bw)
+            for _ in range(CORRECTION_STEPS):
+                r = residual(mesh, asm, v, q0) * s
+                dv = sla.solve_banded((0, bw), ub, sla.solve_banded((bw, 0), cb, r, check_finite=False),
+                                      check_finite=False) * s
+                v_new = v - dv
+                q_new = float(rayleigh_quotients(mesh, asm, v_new[:, None])[0][0])
+                if not (np.isfinite(q_new) and q_new > 0):
+                    break
+                change = abs(q_new / q0 - 1.0)
+                improved = q_new <= q0 * (1 + 1e-15)  # the quotient is a minimum: a correction lowers it
+                if improved:
+                    v, q0 = v_new / np.max(np.abs(v_new)), q_new
+                if not improved or change < CORRECTION_STOP:
+                    break
+    vec = vec.copy()
+    vec[:, 0] = v * (float(np.linalg.norm(vec[:, 0])) / max(float(np.linalg.norm(v)), 1e-300))
+    ok = np.isfinite(q) & (q > 0)
+    new = np.where(ok, q, lam)
+    new[0] = q0
+    order = np.argsort(new, kind="stable")
+    eps = float(np.finfo(float).eps)
+    span = float(mesh.x[-1] - mesh.x[0]) / float(mesh.L.min())
+    est = max(change, 4 * eps * span * span + 4 * eps)
+    return new[order], vec[:, order], float(floor if share[0] > 0.5 else min(floor, est))
+
+
+#: Ratio of the largest to the smallest segment EI beyond which a round-off limit is put down to the contrast.
+EI_CONTRAST = 1e4
+
+
+def _roundoff_warning(column: Column, floor: float) -> str:
+    """The round-off warning, naming its likely cause: a stiffness contrast or very soft restraints."""
+    ei = segment_min_ei(column).tolist()
+    head = f"accuracy limited by round-off (estimated {floor:.1e} relative): "
+    if max(ei) > EI_CONTRAST * min(ei):
+        return head + (f"the segments differ in stiffness (EI) by a factor of {max(ei) / min(ei):.1e} and the "
+                       "buckling mode moves the stiff ones almost as rigid bodies")
+    return head + ("the mode is held only by restraints that are very soft compared with the member "
+                   "(a near-mechanism); check the restraints")
+
+
+#: Shear parameter ``12 EI / (S L_e^2)`` beyond which a numerically singular matrix is put down to S.
+PHI_SINGULAR = 1e10
+
+
+def _singular_reason(column: Column, mesh: Mesh) -> tuple[str, str]:
+    """Why a restrained (not a mechanism) column still has a numerically singular stiffness matrix."""
+    phi = float(mesh.phi.max(initial=0.0))
+    if phi > PHI_SINGULAR:
+        return ("S", f"the shear stiffness is too small compared with the bending stiffness for double precision "
+                     f"(12 EI / (S L^2) reaches {phi:.1e} on the mesh): check S; such a member buckles in shear at "
+                     "a load of about S")
+    ei = segment_min_ei(column).tolist()
+    if max(ei) > EI_CONTRAST * min(ei):
+        return ("segments", f"the segments differ in stiffness (EI) by a factor of {max(ei) / min(ei):.1e}: beyond "
+                            "what double precision can resolve")
+    return ("restraints", "the restraints are too soft compared with the member for double precision "
+                          "(a near-mechanism): stiffen them or model them as free")
+
+
 def _check_solvable(column: Column, mesh: Mesh, asm: Assembled) -> None:
-    if asm.K0.shape[0] == 0:
+    if asm.n == 0:
         raise ModelError("restraints", "every degree of freedom is rigidly restrained; nothing can buckle")
-    if _cholesky(asm.K0) is None:
-        raise ModelError("restraints", _diagnose_mechanism(column, mesh, asm))
-    if not column.has_variable_load or not np.any(asm.G):
+    why = rigid_body_mechanism(column)
+    if why:
+        raise ModelError("restraints", why)
+    if scaled_cholesky(asm.K0s if asm.is_sparse else asm.K0) is None:
+        raise ModelError(*_singular_reason(column, mesh))
+    has_g = bool(np.any(asm.Gs.data)) if asm.is_sparse else bool(np.any(asm.G))
+    if not column.has_variable_load or not has_g:
         if np.any(mesh.N_perm > 0):
             raise ModelError("loads", "there is no variable load to scale: every load is permanent")
         raise ModelError("loads", "no compression anywhere in the column: buckling is not possible")
     if np.all(mesh.N_var <= 0) and not np.any(mesh.lean_var):
         raise ModelError("loads", "no compression anywhere in the column under the variable loads: "
                                   "buckling is not possible")
-    if _cholesky(asm.K) is None:
+    has_perm = asm.matrices[0] is not asm.matrices[1]
+    if has_perm and scaled_cholesky(asm.Ks if asm.is_sparse else asm.K) is None:
         raise ModelError("loads", "the permanent loads alone exceed the elastic critical load: "
                                   "the column buckles before any variable load is applied")
 
 
-# Long only by its numpydoc docstring: the body is 66 lines.
+# Long only by its numpydoc docstring: the body is 67 lines.
 def buckling(column: Column, n_modes: int = 3, tol: float = DEFAULT_TOL, method: str = "auto",
              axis: str = "", min_level: int = 1) -> BucklingResult:
     """Lowest elastic critical load factors of ``column`` with automatic meshing.
@@ -248,8 +341,10 @@ def buckling(column: Column, n_modes: int = 3, tol: float = DEFAULT_TOL, method:
         lam, vec, solver = solve_assembled(asm, n_modes, method)
         if lam.size == 0:
             raise SolverError("no positive load factor found: the variable loads do not cause buckling")
-        solved[level] = float(lam[0])
         floor = roundoff_floor(asm, vec[:, 0])
+        if floor > QUOTIENT_FROM:
+            lam, vec, floor = _quotient_load_factors(mesh, asm, lam, vec, floor)
+        solved[level] = float(lam[0])
         nxt = level + 1
         if level - 1 in solved:
             d = abs(solved[level] - solved[level - 1])
@@ -284,8 +379,7 @@ def buckling(column: Column, n_modes: int = 3, tol: float = DEFAULT_TOL, method:
     converged = est <= tol
     warns: tuple[str, ...] = ()
     if roundoff_limited or floor > 0.1 * tol:
-        warns = (f"accuracy limited by round-off (estimated {floor:.1e} relative): the mode is held only by "
-                 "restraints that are very soft compared with the member (a near-mechanism); check the restraints",)
+        warns = (_roundoff_warning(column, floor),)
     if converged:
         msg = f"lowest load factor converged: estimated relative discretisation error {est:.1e} <= {tol:.0e}"
     elif roundoff_limited:
@@ -309,9 +403,7 @@ def _package(column, mesh, asm, lam, vec, solver, history, est, tol, converged, 
         th[i] /= s
 
     # bending energy per element and per segment
-    idx = 2 * np.arange(mesh.n_el)[:, None] + np.arange(4)[None, :]
-    ue = full[idx]  # (n_el, 4, n_modes)
-    e_el = 0.5 * np.einsum("eim,eij,ejm->em", ue, asm.k_bending, ue)
+    e_el = element_bending_energies(mesh, asm, full)  # (n_el, n_modes), free of the matrix's cancellation
     n_seg = len(column.segments)
     e_seg = np.zeros((n_modes, n_seg))
     np.add.at(e_seg.T, mesh.seg, e_el)
@@ -321,13 +413,9 @@ def _package(column, mesh, asm, lam, vec, solver, history, est, tol, converged, 
     lam1 = float(lam[0])
     bounds = column.segment_bounds()
     tolx = 1e-9 * column.height
-    n_all = []
     segs = []
-    for i, (s, (a, b)) in enumerate(zip(column.segments, bounds)):
-        xs = np.array([a + tolx])
-        Np = float(column.axial_force(xs, permanent=True)[0])
-        Nv = float(column.axial_force(xs, permanent=False)[0])
-        n_all.append((Np, Nv))
+    xs = np.array([a for a, _ in bounds]) + tolx
+    n_all = list(zip(column.axial_force(xs, permanent=True).tolist(), column.axial_force(xs, permanent=False).tolist()))
     n_cr_all = [Np + lam1 * Nv for Np, Nv in n_all]
     n_max = max(max(n_cr_all), 0.0)
     for i, (s, (a, b)) in enumerate(zip(column.segments, bounds)):

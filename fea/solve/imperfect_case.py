@@ -126,6 +126,10 @@ def plane_inputs(case: Case, axis: str, spec: ImperfectionSpec | None = None):
         spec.loads.for_axis(axis), analysis, notes
 
 
+#: Most segments of a case with an imperfect-column analysis (its solvers use dense matrices).
+MAX_IMPERFECT_SEGMENTS = 200
+
+
 def run_imperfect(case: Case, buckling_results=None) -> dict[str, ImperfectResult] | None:
     """Run the imperfect-column analyses ``case`` declares: ``{axis: ImperfectResult}``, or None if it declares none.
 
@@ -134,6 +138,10 @@ def run_imperfect(case: Case, buckling_results=None) -> dict[str, ImperfectResul
     """
     if not declares_imperfect(case):
         return None
+    if len(case.segments) > MAX_IMPERFECT_SEGMENTS:
+        # the second-order and nonlinear solvers work on dense matrices: refuse at once what they cannot hold
+        raise CaseError("imperfection", f"the imperfect-column analysis takes at most {MAX_IMPERFECT_SEGMENTS} "
+                                        f"segments; this case has {len(case.segments)}")
     from .imperfect import analyse_imperfect
 
     spec = imperfection_spec(case)

@@ -198,7 +198,8 @@ def _run_tasks(fn, tasks: list, jobs: int, progress=None, weights: list[int] | N
             if progress:
                 progress(done, total)
         return out
-    with ProcessPoolExecutor(max_workers=jobs) as ex:
+    ex = ProcessPoolExecutor(max_workers=jobs, initializer=_worker_start, initargs=(os.getpid(),))
+    try:
         futures = {ex.submit(fn, *t): i for i, t in enumerate(tasks)}
         for f in as_completed(futures):
             i = futures[f]
@@ -206,7 +207,79 @@ def _run_tasks(fn, tasks: list, jobs: int, progress=None, weights: list[int] | N
             done += weights[i]
             if progress:
                 progress(done, total)
+    except BaseException:
+        _stop_pool(ex)  # an error, Ctrl-C or SIGTERM: no pending point runs on, no worker stays behind
+        raise
+    ex.shutdown()
     return out
+
+
+def _stop_pool(ex: ProcessPoolExecutor) -> None:
+    """Cancel the pending tasks of ``ex`` and end its workers at once."""
+    procs = list((getattr(ex, "_processes", None) or {}).values())
+    ex.shutdown(wait=False, cancel_futures=True)
+    for p in procs:
+        try:
+            p.terminate()
+        except (OSError, ValueError, AttributeError):  # already gone
+            pass
+    for p in procs:
+        try:
+            p.join(2.0)
+            if p.is_alive():
+                p.kill()
+                p.join(1.0)
+        except (OSError, ValueError, AttributeError, AssertionError):
+            pass
+
+
+#: How often (seconds) a worker looks whether the process that started it is still alive.
+_PARENT_POLL = 0.25
+
+
+def _end_worker() -> None:
+    """End this worker process at once (its parent is gone: nobody waits for its results)."""
+    import signal
+
+    os.kill(os.getpid(), signal.SIGKILL)
+
+
+def _worker_start(parent: int) -> None:
+    """Initializer of a sweep worker: leave Ctrl-C to the parent, and end when the parent dies.
+
+    On Linux the kernel sends the worker SIGKILL when its parent ends (prctl
+    PR_SET_PDEATHSIG); elsewhere, and as a second line, a daemon thread polls the
+    parent's process id.
+    """
+    import signal
+    import sys
+    import threading
+    import time
+
+    signal.signal(signal.SIGINT, signal.SIG_IGN)
+    if sys.platform.startswith("linux"):
+        try:
+            import ctypes
+
+            libc = ctypes.CDLL(None, use_errno=True)
+            libc.prctl(1, int(signal.SIGKILL), 0, 0, 0)  # 1 = PR_SET_PDEATHSIG
+        except (OSError, AttributeError):  # pragma: no cover - no usable libc
+            pass
+    first = os.getppid()
+    if first != parent:  # started through a server process, or the parent died before prctl took effect
+        try:
+            os.kill(parent, 0)
+        except ProcessLookupError:
+            _end_worker()
+        except OSError:
+            pass
+
+    def watch() -> None:
+        while os.getppid() == first:
+            time.sleep(_PARENT_POLL)
+        _end_worker()
+
+    threading.Thread(target=watch, name="stanchion-parent-watch", daemon=True).start()
 
 
 def _chunks(n: int, jobs: int, per_job: int = 8) -> list[tuple[int, int]]:

@@ -4,11 +4,13 @@ from __future__ import annotations
 
 import difflib
 import math
+import re
+import unicodedata
 from typing import Any, Iterable
 
 from ..errors import CaseError
 
-__all__ = ["check_keys", "as_bool", "as_str", "as_number", "as_table", "as_tables"]
+__all__ = ["check_keys", "as_bool", "as_str", "as_text", "one_line", "as_number", "as_table", "as_tables"]
 
 
 def check_keys(table: dict, path: str, allowed: Iterable[str]) -> None:
@@ -18,7 +20,8 @@ def check_keys(table: dict, path: str, allowed: Iterable[str]) -> None:
         if key not in allowed:
             close = difflib.get_close_matches(key, allowed, n=1, cutoff=0.6)
             hint = f"; did you mean `{close[0]}`?" if close else f"; expected one of {', '.join(allowed)}"
-            where = f"{path}.{key}" if path else key
+            shown = key if len(key) <= 40 and key.isprintable() else repr(key[:37]) + "..."
+            where = f"{path}.{shown}" if path else shown
             raise CaseError(where, f"unknown key{hint}")
 
 
@@ -32,6 +35,23 @@ def as_str(value: Any, path: str) -> str:
     if not isinstance(value, str):
         raise CaseError(path, f"expected a string, got {value!r}")
     return value
+
+
+def as_text(value: Any, path: str) -> str:
+    """A string without control or format characters other than tabs and line breaks (no escape sequences,
+    bells, NULs or direction marks): text that is printed."""
+    text = as_str(value, path)
+    # line breaks and tabs are left to the outputs, which print each text in a form fit for its place
+    bad = next((c for c in text if unicodedata.category(c) in ("Cc", "Cf") and c not in "\t\n\r"), None)
+    if bad is not None:
+        raise CaseError(path, f"contains the control character U+{ord(bad):04X}: write the {path} in printable "
+                              "characters")
+    return text
+
+
+def one_line(text: str) -> str:
+    """``text`` for a line of terminal output: every run of tabs and line breaks becomes one space."""
+    return re.sub(r"[\t\n\r\v\f\x85\u2028\u2029]+", " ", text)
 
 
 def as_number(value: Any, path: str, low: float = -math.inf, high: float = math.inf, *,
