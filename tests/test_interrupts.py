@@ -129,3 +129,18 @@ def test_workers_end_when_the_main_process_is_killed():
         assert _wait_for(lambda: not any(_alive(w) for w in workers), 5), "workers ran on after the parent died"
     finally:
         _reap(p, workers)
+
+
+def test_a_reader_that_stops_reading_ends_the_run_quietly_with_141():
+    # `stanchion check ... --json | head`: the JSON of the crooked post (about 0.5 MB) overfills the pipe
+    p = subprocess.Popen([sys.executable, "-m", "fea", "check", "cases/crooked_post.toml", "--json"], cwd=ROOT,
+                         stdout=subprocess.PIPE, stderr=subprocess.PIPE)
+    try:
+        assert p.stdout is not None and p.stdout.read(100)
+        p.stdout.close()  # the reader goes away
+        err = p.stderr.read() if p.stderr is not None else b""
+        assert p.wait(timeout=60) == 141
+        assert err == b"", err  # no traceback, no "internal error"
+    finally:
+        if p.poll() is None:
+            p.kill()

@@ -10,7 +10,9 @@ The only package that prints or sets the exit status.  Exit status: 0 success,
 from __future__ import annotations
 
 import argparse
+import io
 import logging
+import os
 import signal
 import sys
 
@@ -18,7 +20,7 @@ from ..cautions import CAUTION
 from ..errors import FeaError
 from ..version import __version__
 from . import bounds, brace, check, init, report, sensitivity, size, sweep
-from .common import EXIT_BAD_INPUT, EXIT_FAILED_CHECK, EXIT_INTERNAL, EXIT_OK, Parser
+from .common import EXIT_BAD_INPUT, EXIT_BROKEN_PIPE, EXIT_FAILED_CHECK, EXIT_INTERNAL, EXIT_OK, Parser
 
 __all__ = ["main", "build_parser", "SUBCOMMANDS", "EXIT_OK", "EXIT_FAILED_CHECK", "EXIT_BAD_INPUT", "EXIT_INTERNAL"]
 
@@ -72,12 +74,24 @@ def main(argv: list[str] | None = None) -> int:
         return EXIT_BAD_INPUT
     except KeyboardInterrupt:
         return interrupted()
+    except BrokenPipeError:
+        return reader_gone()
     except Exception as exc:  # pragma: no cover - a bug, not bad input
         if debug:
             raise
         print(f"stanchion: internal error: {type(exc).__name__}: {exc} (run with --debug for details)",
               file=sys.stderr)
         return EXIT_INTERNAL
+
+
+def reader_gone() -> int:
+    """The exit status when the reader of standard output stopped reading (``stanchion check ... | head``):
+    128 + SIGPIPE, silently, as a program ended by the signal would; files the run wrote are complete."""
+    try:  # the interpreter flushes standard output at exit: point it at nothing so that it cannot fail again
+        os.dup2(os.open(os.devnull, os.O_WRONLY), sys.stdout.fileno())
+    except (OSError, ValueError, io.UnsupportedOperation):
+        pass
+    return EXIT_BROKEN_PIPE
 
 
 def interrupted() -> int:

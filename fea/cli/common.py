@@ -6,9 +6,12 @@ import argparse
 
 from ..errors import FeaError
 
-__all__ = ["EXIT_OK", "EXIT_FAILED_CHECK", "EXIT_BAD_INPUT", "EXIT_INTERNAL", "Parser", "units_argument"]
+__all__ = ["EXIT_OK", "EXIT_FAILED_CHECK", "EXIT_BAD_INPUT", "EXIT_INTERNAL", "EXIT_BROKEN_PIPE", "Parser",
+           "units_argument"]
 
 EXIT_OK, EXIT_FAILED_CHECK, EXIT_BAD_INPUT, EXIT_INTERNAL = 0, 1, 2, 3
+#: The reader of standard output stopped reading (128 + SIGPIPE).
+EXIT_BROKEN_PIPE = 141
 
 
 class Parser(argparse.ArgumentParser):
