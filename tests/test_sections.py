@@ -197,17 +197,14 @@ SP_CASES = {
 }
 
 
-@pytest.fixture(scope="module")
-def sp_results():
-    # listed in the ``test`` extra; a missing reference is a failure, not a skip
-    from importlib.metadata import version
+class _SectionpropertiesResults(dict):
+    """sectionproperties' results for each shape of :data:`SP_CASES`, computed on first use (key -> dict)."""
 
-    assert int(version("sectionproperties").split(".")[0]) >= 3
-    from sectionproperties.analysis import Section
-    from sectionproperties.pre import library
+    def __missing__(self, key: str) -> dict:
+        from sectionproperties.analysis import Section
+        from sectionproperties.pre import library
 
-    out = {}
-    for key, (shape, expr, _, _) in SP_CASES.items():
+        _shape, expr, _, _ = SP_CASES[key]
         geom = eval(expr, vars(library))  # noqa: S307 - fixed expressions above
         geom.create_mesh(mesh_sizes=[geom.calculate_area() / 600])
         sec = Section(geom)
@@ -219,7 +216,7 @@ def sp_results():
         I11, I22 = sec.get_ip()
         z11p, z11m, z22p, z22m = sec.get_zp()
         s11, s22 = sec.get_sp()
-        out[key] = {
+        self[key] = out = {
             "area": sec.get_area(),
             "y_c": cx - xmin,
             "z_c": cy - ymin,
@@ -232,7 +229,16 @@ def sp_results():
             "phi": math.radians(sec.get_phi()),
             "J": sec.get_j(),
         }
-    return out
+        return out
+
+
+@pytest.fixture(scope="module")
+def sp_results():
+    # listed in the ``test`` extra; a missing reference is a failure, not a skip
+    from importlib.metadata import version
+
+    assert int(version("sectionproperties").split(".")[0]) >= 3
+    return _SectionpropertiesResults()
 
 
 @pytest.mark.parametrize("key", list(SP_CASES))
