@@ -18,7 +18,6 @@ import sys
 
 from ..cautions import CAUTION
 from ..errors import FeaError
-from ..version import __version__
 from . import bounds, brace, check, init, report, sensitivity, size, sweep
 from .common import EXIT_BAD_INPUT, EXIT_BROKEN_PIPE, EXIT_FAILED_CHECK, EXIT_INTERNAL, EXIT_OK, Parser
 
@@ -44,7 +43,8 @@ def build_parser() -> argparse.ArgumentParser:
         description="Buckling and design checks of single compression members: partial end fixity, steps and "
                     "tapers, braces of finite stiffness, loads at several heights. " + CAUTION,
     )
-    p.add_argument("--version", action="version", version=f"stanchion {__version__}")
+    p.add_argument("--version", action=_Version, nargs=0,
+                   help="show program's version number and exit")
     p.add_argument("--debug", action="store_true", help="show tracebacks and debug logging")
     sub = p.add_subparsers(dest="command", metavar="COMMAND", parser_class=Parser)
     for cmd in SUBCOMMANDS:
@@ -52,6 +52,16 @@ def build_parser() -> argparse.ArgumentParser:
         cmd.add_arguments(sp)
         sp.add_argument("--debug", action="store_true", default=argparse.SUPPRESS, help=argparse.SUPPRESS)
     return p
+
+
+class _Version(argparse.Action):
+    """``--version``: the version is looked up only when asked for (start-up time)."""
+
+    def __call__(self, parser, namespace, values, option_string=None) -> None:
+        from ..version import version
+
+        print(f"stanchion {version()}")
+        parser.exit()
 
 
 def main(argv: list[str] | None = None) -> int:

@@ -22,7 +22,7 @@ def run(args: argparse.Namespace) -> int:
     from ..io.study_output import bounds_dict, bounds_lines
     from ..study.paths import parse_key
     from ..study.run import case_bounds
-    from ..version import __version__
+    from ..version import version
     from .study_common import finish, load_study, plan_outputs
 
     study, spec = load_study(args)
@@ -40,4 +40,4 @@ def run(args: argparse.Namespace) -> int:
     else:
         raise FeaError("no uncertain spring: give --spring KEY LOW HIGH or [[study.bounds.spring]] in the case")
     cb = case_bounds(study, ranges)
-    return finish(args, plan, bounds_dict(study, cb, __version__), lambda: bounds_lines(study, cb))
+    return finish(args, plan, bounds_dict(study, cb, version()), lambda: bounds_lines(study, cb))

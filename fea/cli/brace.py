@@ -27,7 +27,7 @@ def add_arguments(p: argparse.ArgumentParser) -> None:
 def run(args: argparse.Namespace) -> int:
     from ..io.study_output import brace_dict, brace_lines
     from ..study.run import case_brace
-    from ..version import __version__
+    from ..version import version
     from .study_common import check_plot, finish, load_study, plan_outputs
 
     study, spec = load_study(args)
@@ -42,7 +42,7 @@ def run(args: argparse.Namespace) -> int:
                     fraction=args.fraction if args.fraction is not None else (b.fraction if b else 0.95),
                     eps=args.eps if args.eps is not None else (b.eps if b else 1e-6),
                     bow=args.bow if args.bow is not None else (b.bow if b else 500.0))
-    data = brace_dict(study, cb, __version__)
+    data = brace_dict(study, cb, version())
     figure = None
     if args.plot:
         from ..plot.study import plot_brace

@@ -18,10 +18,10 @@ def add_arguments(p: argparse.ArgumentParser) -> None:
 def run(args: argparse.Namespace) -> int:
     from ..io.study_output import sensitivity_dict, sensitivity_lines
     from ..study.run import case_sensitivities
-    from ..version import __version__
+    from ..version import version
     from .study_common import finish, load_study, plan_outputs
 
     study, _spec = load_study(args)
     plan = plan_outputs(args)
     cs = case_sensitivities(study, check=not args.no_check)
-    return finish(args, plan, sensitivity_dict(study, cs, __version__), lambda: sensitivity_lines(study, cs))
+    return finish(args, plan, sensitivity_dict(study, cs, version()), lambda: sensitivity_lines(study, cs))

@@ -69,7 +69,7 @@ def run(args: argparse.Namespace) -> int:
     from ..io.study_output import sweep_csv, sweep_dict, sweep_lines
     from ..study.paths import parse_key
     from ..study.sweep import make_range, sweep
-    from ..version import __version__
+    from ..version import version
     from .study_common import Progress, check_plot, finish, jobs, load_study, plan_outputs
 
     study, spec = load_study(args)
@@ -78,7 +78,7 @@ def run(args: argparse.Namespace) -> int:
     params, segments, method = _parameters(args, spec)
     ranges = [make_range(study, parse_key(p.key), p.start, p.stop, p.points, p.scale) for p in params]
     res = sweep(study, ranges, segments=segments, method=method, jobs=jobs(args, spec), progress=Progress("sweep"))
-    data = sweep_dict(study, res, __version__)
+    data = sweep_dict(study, res, version())
     figure = None
     if args.plot:
         from ..plot.study import plot_sweep

@@ -97,7 +97,7 @@ def _segment_index(ref: Any, path: str, doc: dict) -> int:
 
 
 def parse_design(table: dict, doc: dict) -> DesignSpec:
-    """The ``[design]`` table -> :class:`DesignSpec` (case-file parser registered as ``design``)."""
+    """The ``[design]`` table -> :class:`DesignSpec` (its parser in :data:`fea.pipeline.ANALYSES`)."""
     if "standard" not in table:
         raise CaseError("design.standard", f"missing: expected one of {', '.join(repr(s) for s in PARAMETERS)}")
     standard = table["standard"]

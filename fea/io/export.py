@@ -7,7 +7,7 @@ from typing import Any, Callable, Mapping
 from ..cautions import CAUTION, LIMITATIONS
 from ..results import BucklingResult, CaseResults
 from ..util.numbers import finite_or_none as _num
-from ..version import __version__
+from ..version import version
 
 __all__ = ["result_dict", "buckling_dict"]
 
@@ -54,7 +54,7 @@ def result_dict(res: CaseResults, parts: Mapping[str, Callable[[Any], Any]]) -> 
     case = res.case
     out: dict[str, Any] = {
         "units": "SI",
-        "tool": {"name": "stanchion", "version": __version__},
+        "tool": {"name": "stanchion", "version": version()},
         "title": case.title,
         "case_file": case.source,
         "case_sha256": case.sha256,

@@ -4,7 +4,7 @@ from __future__ import annotations
 
 from ..cautions import CAUTION
 from ..results import CaseResults
-from ..version import __version__
+from ..version import version
 from .document import Para, Part, T, Table, q
 
 __all__ = ["title_of", "identification_rows", "brief_blocks", "caution", "running_head"]
@@ -24,7 +24,7 @@ def identification_rows(res: CaseResults, date: str) -> list[tuple]:
     return [
         (("Case file",), (T(case.source, "json:case_file"),) if case.source else ("(given as text)",)),
         (("Hash of the case file, ", T("SHA-256", "name:SHA-256")), (T(case.sha256, "json:case_sha256"),)),
-        (("Program",), (T("stanchion", "json:tool/name"), " version ", T(__version__, "json:tool/version"))),
+        (("Program",), (T("stanchion", "json:tool/name"), " version ", T(version(), "json:tool/version"))),
         (("Date of this report",), (T(date, "report:date"),)),
         (("Display units",), (f"lengths in {d.length}, forces in {d.force}, stresses in {d.stress}",)),
     ]

@@ -30,7 +30,7 @@ from ..formulas import effective_length_factor
 from ..mesh import Mesh, build_mesh, segment_min_ei
 from ..model import Column
 from ..results import K_AXIAL_RATIO_MIN, K_ENERGY_SHARE_MIN, BucklingResult, SegmentBuckling
-from .solvable import banded_lower, bandwidth, rigid_body_mechanism, scaled_cholesky
+from .solvable import banded_lower, bandwidth, positive_definite, rigid_body_mechanism, scaled_cholesky
 
 __all__ = ["buckling", "solve_assembled", "roundoff_floor", "DENSE_MAX_DOF", "DEFAULT_TOL", "MAX_LEVEL"]
 
@@ -273,7 +273,7 @@ def _check_solvable(column: Column, mesh: Mesh, asm: Assembled) -> None:
     why = rigid_body_mechanism(column)
     if why:
         raise ModelError("restraints", why)
-    if scaled_cholesky(asm.K0s if asm.is_sparse else asm.K0) is None:
+    if not positive_definite(asm.K0s if asm.is_sparse else asm.K0):
         raise ModelError(*_singular_reason(column, mesh))
     has_g = bool(np.any(asm.Gs.data)) if asm.is_sparse else bool(np.any(asm.G))
     if not column.has_variable_load or not has_g:
@@ -284,7 +284,7 @@ def _check_solvable(column: Column, mesh: Mesh, asm: Assembled) -> None:
         raise ModelError("loads", "no compression anywhere in the column under the variable loads: "
                                   "buckling is not possible")
     has_perm = asm.matrices[0] is not asm.matrices[1]
-    if has_perm and scaled_cholesky(asm.Ks if asm.is_sparse else asm.K) is None:
+    if has_perm and not positive_definite(asm.Ks if asm.is_sparse else asm.K):
         raise ModelError("loads", "the permanent loads alone exceed the elastic critical load: "
                                   "the column buckles before any variable load is applied")
 

@@ -24,7 +24,7 @@ import numpy as np
 
 from ..model import STATION_TOL, Column
 
-__all__ = ["rigid_body_mechanism", "scaled_cholesky", "bandwidth", "banded_lower", "PIVOT_MIN"]
+__all__ = ["rigid_body_mechanism", "positive_definite", "scaled_cholesky", "bandwidth", "banded_lower", "PIVOT_MIN"]
 
 #: Smallest squared pivot of the unit-diagonal (scaled) matrix accepted as positive definite.
 PIVOT_MIN = 64 * np.finfo(float).eps
@@ -88,6 +88,26 @@ def banded_lower(A, bw: int) -> np.ndarray:
     for d in range(bw + 1):
         ab[d, : n - d] = np.diagonal(A, -d) if isinstance(A, np.ndarray) else A.diagonal(-d)
     return ab
+
+
+def positive_definite(A) -> bool:
+    """Whether ``A`` passes the test of :func:`scaled_cholesky`; small dense matrices with numpy alone.
+
+    A dense matrix is factored by numpy's Cholesky after the same unit-diagonal scaling and checked
+    against the same pivot bound, so a plain check of a small case does not import scipy (start-up time).
+    """
+    if isinstance(A, np.ndarray):
+        d = np.diagonal(A).astype(float)
+        if d.size == 0 or not np.all(np.isfinite(d)) or np.any(d <= 0):
+            return False
+        s = 1.0 / np.sqrt(d)
+        try:
+            L = np.linalg.cholesky(A * s[:, None] * s[None, :])
+        except np.linalg.LinAlgError:
+            return False
+        piv = np.diagonal(L) ** 2
+        return bool(np.all(np.isfinite(L)) and piv.min() >= PIVOT_MIN)
+    return scaled_cholesky(A) is not None
 
 
 def scaled_cholesky(A) -> tuple[np.ndarray, np.ndarray, int] | None:
