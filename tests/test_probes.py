@@ -254,8 +254,17 @@ def _check_refusal(probe: dict, r: Run, argv: list[str]) -> None:
         assert any(w.lower() in low for w in probe["reason"]), f"not the true reason ({probe['reason']}): {line}"
 
 
+def _buckles(r: Run) -> bool:
+    """Exit 1 with the JSON result saying a plane's lowest load factor is below 1 (issue 12: not a refusal)."""
+    if r.returncode != 1 or not r.stdout.lstrip().startswith("{"):
+        return False
+    result = json.loads(r.stdout)
+    keys = {w["key"] for w in result.get("warnings", [])}
+    return "buckles-under-case-loads" in keys and result["governing_load_factor"] < 1
+
+
 def _check_success(probe: dict, r: Run, tmp: Path) -> None:
-    assert r.returncode == 0, f"exit {r.returncode}, expected 0; stderr: {r.stderr[-500:]}"
+    assert r.returncode == 0 or _buckles(r), f"exit {r.returncode}, expected 0; stderr: {r.stderr[-500:]}"
     if not probe.get("json", True):
         return
     result = json.loads(r.stdout)
@@ -272,7 +281,7 @@ def _check_success(probe: dict, r: Run, tmp: Path) -> None:
         html = tmp / "report.html"
         rr = _run(["report", str(PROBES / probe["file"]), "-o", str(html), "--date", "2026-01-01"])
         _check_always(probe, rr)
-        assert rr.returncode == 0, rr.stderr[-500:]
+        assert rr.returncode == 0 or (rr.returncode == 1 and _buckles(r)), rr.stderr[-500:]
         text = html.read_text(encoding="utf-8")
         raw = [m for m in probe["report_markers"] if m in text]
         assert not raw, f"unescaped case text in the report: {raw}"
@@ -284,7 +293,7 @@ def test_probe(probe: dict, tmp_path: Path) -> None:
     r = _run(argv)
     _check_always(probe, r)
     expect = probe["expect"]
-    if expect == "error" or (expect == "either" and r.returncode != 0):
+    if expect == "error" or (expect == "either" and r.returncode != 0 and not _buckles(r)):
         _check_refusal(probe, r, argv)
     else:
         _check_success(probe, r, tmp_path)

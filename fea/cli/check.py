@@ -68,7 +68,8 @@ def run(args: argparse.Namespace) -> int:
         for line in summary(res, display):
             print(line)
         logging.getLogger(__name__).debug("check took %.3f s", time.perf_counter() - t0)
-    status = data.get("design", {}).get("passed", True)
+    # exit status 1 when the design fails or is not verified, and when a plane buckles below its loads
+    status = data.get("design", {}).get("verdict", "passes") == "passes" and not data["warnings"]
     return EXIT_OK if status else EXIT_FAILED_CHECK
 
 

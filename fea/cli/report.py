@@ -95,8 +95,11 @@ def run(args: argparse.Namespace) -> int:
     plan.add(out, html_text, "-o")
     plan.write()
     print(f"wrote {out}" + (f" and {md}" if md is not None else ""))
+    from ..io.run_warnings import run_warnings
+
     design = res.extras.get("design")
-    return EXIT_OK if design is None or design.passed else EXIT_FAILED_CHECK
+    ok = (design is None or design.verdict == "passes") and not run_warnings(res)
+    return EXIT_OK if ok else EXIT_FAILED_CHECK
 
 
 def _standalone_svg(svg: str) -> str:

@@ -24,6 +24,7 @@ from typing import Any, Mapping, Sequence
 
 from fea.design.standards import PASSES, UTILISATION, MemberData
 from fea.design.standards import STANDARDS as RECORDS
+from fea.design.sway import BUCKLES, SwayClass
 from fea.errors import ModelError
 
 __all__ = [
@@ -180,12 +181,14 @@ class DesignResult:
     load_factor : factor applied to the case loads to give the design forces [-]
     checks : every check, segment by segment (compression per axis, then tension)
     notes : statements that apply to the whole check
+    sway : per plane, the sway sensitivity (:func:`fea.design.sway.classify_sway`); empty when not classified
     """
 
     standard: str
     load_factor: float
     checks: tuple[DesignCheck, ...]
     notes: tuple[str, ...] = ()
+    sway: tuple[SwayClass, ...] = ()
 
     @property
     def governing(self) -> DesignCheck:
@@ -198,7 +201,20 @@ class DesignResult:
 
     @property
     def passed(self) -> bool:
+        """Whether every check passes (the axial checks only; see :attr:`verdict`)."""
         return all(c.passed for c in self.checks)
+
+    @property
+    def verdict(self) -> str:
+        """"passes", "fails" (a check fails, or a plane buckles below the design loads) or "not verified"
+        (every check passes but a plane's sway sensitivity says the axial check alone is not enough)."""
+        # a plane buckling below the design loads, or below the case loads (alpha_cr x load factor < 1), fails
+        if not self.passed or any(s.classification == BUCKLES or s.alpha_cr * self.load_factor < 1.0
+                                  for s in self.sway):
+            return "fails"
+        if any(not s.axial_check_enough for s in self.sway):
+            return "not verified"
+        return "passes"
 
 
 # ---------------------------------------------------------------------------

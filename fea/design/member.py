@@ -8,6 +8,8 @@ module turns the case and its buckling results into the inputs of
 
 from __future__ import annotations
 
+import math
+from dataclasses import replace
 from typing import Sequence
 
 from ..errors import CaseError
@@ -16,8 +18,9 @@ from ..model.case import Case
 from ..results import BucklingResult
 from .check import AxisBuckling, DesignResult, DesignSpec, MemberData, SegmentForces, design_check
 from .standards import STANDARDS
+from .sway import classify_sway
 
-__all__ = ["member_data", "segment_forces", "axis_buckling", "design_of_case", "NEEDS_FY"]
+__all__ = ["sways", "member_data", "segment_forces", "axis_buckling", "design_of_case", "NEEDS_FY"]
 
 #: Standards whose resistance is built on the yield strength fy.
 NEEDS_FY = tuple(name for name, record in STANDARDS.items() if record.needs_fy)
@@ -66,6 +69,14 @@ def axis_buckling(r: BucklingResult) -> tuple[AxisBuckling, ...]:
                               meaningful=s.meaningful, note=s.note) for s in r.segments)
 
 
+def sways(column: Column) -> bool:
+    """Whether ``column`` may sway: not held rigidly against translation at both its base and top, or it
+    carries leaning loads (see :func:`fea.design.sway.classify_sway`)."""
+    H = column.height
+    held = {round(r.at / H, 9) for r in column.restraints if math.isinf(r.lateral)}
+    return bool(column.leaning_loads) or not {0.0, 1.0} <= held
+
+
 def design_of_case(case: Case, results: Sequence[BucklingResult], spec: DesignSpec | None = None,
                    areas: Sequence[float | None] | None = None, columns: Sequence[Column] | None = None
                    ) -> DesignResult | None:
@@ -82,4 +93,9 @@ def design_of_case(case: Case, results: Sequence[BucklingResult], spec: DesignSp
     members = member_data(case, spec, areas)
     forces = segment_forces(cols[0])
     buck = [(r.axis or a, axis_buckling(r)) for r, (a, _) in zip(results, case.planes)]
-    return design_check(spec, members, forces, buck)
+    result = design_check(spec, members, forces, buck)
+    # the design forces are the case loads x spec.load_factor (design_check), so the lowest load factor on the
+    # design loads is the plane's lowest load factor on the case loads divided by it
+    sway = tuple(classify_sway(spec.standard, r.axis or a, r.load_factor / spec.load_factor, sways(c))
+                 for r, (a, _), c in zip(results, case.planes, cols))
+    return replace(result, sway=sway)

@@ -7,9 +7,10 @@ from typing import Any
 
 from ..cautions import CAUTION
 from ..design.check import DesignResult
+from ..design.sway import BRACED
 from ..units import DisplayUnits
 
-__all__ = ["DESIGN_CAUTION", "design_json", "design_summary"]
+__all__ = ["DESIGN_CAUTION", "design_json", "design_summary", "verdict_line"]
 
 DESIGN_CAUTION = ("Design resistances use the published formulas only; the governing standard, its national "
                   "annex and a licensed engineer decide. " + CAUTION)
@@ -26,7 +27,7 @@ def _num(x: float | None) -> float | None:
 def design_json(r: DesignResult) -> dict[str, Any]:
     """The JSON ``"design"`` part (SI; documented in docs/design.md)."""
     g = r.governing
-    return {
+    out = {
         "standard": r.standard,
         "load_factor": r.load_factor,
         "passed": r.passed,
@@ -63,6 +64,22 @@ def design_json(r: DesignResult) -> dict[str, Any]:
         "notes": list(r.notes),
         "caution": DESIGN_CAUTION,
     }
+    if r.sway:  # classified (every check of a case; not the axial-only candidates of sizing)
+        out["verdict"] = r.verdict
+        out["sway"] = [{"axis": w.axis, "alpha_cr": _num(w.alpha_cr), "amplification": _num(w.amplification),
+                        "classification": w.classification, "axial_check_enough": w.axial_check_enough,
+                        "reason": w.reason, "source": w.source} for w in r.sway]
+    return out
+
+
+def verdict_line(r: DesignResult) -> str:
+    """The verdict in plain words: PASSES, FAILS or NOT VERIFIED with what is missing."""
+    if r.verdict == "not verified":
+        return ("Verdict: NOT VERIFIED - every axial check passes, but the sway sensitivity needs more: "
+                "a second-order analysis with imperfections, or the member check with bending (not yet offered)")
+    if r.verdict == "fails" and r.passed:
+        return "Verdict: FAILS - the column buckles elastically below the design loads (alpha_cr < 1)"
+    return f"Verdict: {r.verdict.upper()}"
 
 
 def design_summary(r: DesignResult, d: DisplayUnits) -> list[str]:
@@ -86,7 +103,17 @@ def design_summary(r: DesignResult, d: DisplayUnits) -> list[str]:
             out.append(f"  {'':<18} ({c.note})")
     g = r.governing
     where = "in tension" if g.kind == "tension" else f"about the {g.axis} axis"
-    out.append(f"Governing: segment {g.segment + 1} ({g.name}) {where}, utilisation {g.utilisation:.3f}: "
-               f"{'PASSES' if r.passed else 'FAILS'}")
+    word = {"passes": "PASSES", "fails": "FAILS", "not verified": "axial checks pass, NOT VERIFIED"}[r.verdict]
+    out.append(f"Governing: segment {g.segment + 1} ({g.name}) {where}, utilisation {g.utilisation:.3f}: {word}")
+    if r.sway:
+        out.append(f"Sway sensitivity, alpha_cr = lowest critical load factor on the design loads "
+                   f"({r.sway[0].source}):")
+        for w in r.sway:
+            amp = "" if w.classification == BRACED else f", amplification {w.amplification:.3g}"
+            out.append(f"  {w.axis} axis: alpha_cr {w.alpha_cr:.3g}{amp}: {w.classification}")
+            if not w.axial_check_enough:
+                out.append(f"    ({w.reason})")
+        if r.verdict != ("passes" if r.passed else "fails"):
+            out.append(verdict_line(r))
     out.append(f"  {DESIGN_CAUTION.split(CAUTION)[0].strip()}")
     return out

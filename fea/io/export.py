@@ -8,6 +8,7 @@ from ..cautions import CAUTION, LIMITATIONS
 from ..results import BucklingResult, CaseResults
 from ..util.numbers import finite_or_none as _num
 from ..version import version
+from .run_warnings import run_warnings
 
 __all__ = ["result_dict", "buckling_dict"]
 
@@ -66,5 +67,6 @@ def result_dict(res: CaseResults, parts: Mapping[str, Callable[[Any], Any]]) -> 
     for name, value in res.extras.items():
         if name in parts:
             out[name] = parts[name](value)
+    out["warnings"] = run_warnings(res)
     out["cautions"] = [CAUTION, *LIMITATIONS]
     return out

@@ -9,6 +9,7 @@ from ..cautions import CAUTION
 from ..results import CaseResults
 from ..units import DisplayUnits
 from ..util.checks import one_line
+from .run_warnings import run_warnings
 
 __all__ = ["summary_lines", "fmt"]
 
@@ -35,6 +36,8 @@ def summary_lines(res: CaseResults, display: DisplayUnits | None = None,
         out.append(f"case file {case.source}  (sha256 {case.sha256[:12]})")
     out.append(f"height {fmt(d.L(case.height))} {d.length}, {len(case.segments)} segment(s); "
                f"forces in {d.force}, lengths in {d.length}")
+    for w in run_warnings(res):
+        out.append(f"WARNING: {w['text']}")
     for r in res.buckling:
         out.append("")
         lf = ", ".join(fmt(v) for v in r.load_factors)

@@ -181,10 +181,13 @@ def plot_planes(planes: Sequence[tuple[str, Column, BucklingResult]], n_modes: i
         groups.append(Group(label, column, result, _n_drawn(result, n_modes), model_extent(column, units)))
     lams = [float(g.result.load_factors[0]) for g in groups]
     gov = int(np.argmin(lams))
+    # a plane buckling under its case loads is marked on its heading (and on the title of the figure)
+    below = " — λ < 1: BUCKLES UNDER THE CASE LOADS"
     headings = [f"{g.label} axis" + (" (governs)" if i == gov and len(groups) > 1 else "")
-                for i, g in enumerate(groups)]
+                + (below if lams[i] < 1.0 else "") for i, g in enumerate(groups)]
     base = kw.get("title") or "Buckling modes by bending plane"
-    suptitle = f"{base} — governing: {groups[gov].label} axis, λ = {format_load_factor(lams[gov])}"
+    suptitle = (f"{base} — governing: {groups[gov].label} axis, λ = {format_load_factor(lams[gov])}"
+                + (below if lams[gov] < 1.0 else ""))
     return panel_figure(groups, units, suptitle, headings, gov)
 
 

@@ -3,16 +3,22 @@
 from __future__ import annotations
 
 from ..cautions import CAUTION, LIMITATIONS
+from ..io.run_warnings import run_warnings
+from ..results import CaseResults
 from .document import Bullets, Heading, Note, Para, Part, T
 
 __all__ = ["closing_part"]
 
 
-def closing_part(warnings: list[str]) -> Part:
-    """The warnings (verbatim), the limitations of the tool and its caution (``json:cautions/<n>``)."""
+def closing_part(warnings: list[str], res: CaseResults | None = None) -> Part:
+    """The warnings (verbatim; then the run's keyed warnings, ``json:warnings/<n>/text``), the limitations of the
+    tool and its caution (``json:cautions/<n>``)."""
     blocks: list = [Heading(3, "Warnings raised during the run")]
-    if warnings:
-        blocks.append(Bullets(tuple((T(w, f"run:warnings/{i}"),) for i, w in enumerate(warnings))))
+    keyed = run_warnings(res) if res is not None else []
+    if warnings or keyed:
+        blocks.append(Bullets(tuple((T(w, f"run:warnings/{i}"),) for i, w in enumerate(warnings))
+                              + tuple(("WARNING: ", T(w["text"], f"json:warnings/{i}/text"))
+                                      for i, w in enumerate(keyed))))
     else:
         blocks.append(Para(("None.",)))
     blocks.append(Heading(3, "Limitations"))

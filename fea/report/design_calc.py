@@ -87,6 +87,10 @@ def design_blocks(part: dict, u) -> list:
     g = part.get("governing") or {}
     blocks: list = []
     verdict = "every check passes" if part.get("passed") else "at least one check FAILS"
+    if part.get("verdict") == "not verified":
+        verdict = "every axial check passes, but the member is NOT VERIFIED (see the sway sensitivity below)"
+    elif part.get("verdict") == "fails" and part.get("passed"):
+        verdict = "the column buckles elastically below its loads: the design FAILS"
     where: tuple = ()
     if g:
         axis = "in tension" if g.get("kind") == "tension" else AXIS_WORDS.get(g.get("axis"), g.get("axis", ""))
@@ -97,6 +101,7 @@ def design_blocks(part: dict, u) -> list:
                         CLASSICAL.get(std, ""), ": ", verdict,
                         "; the largest utilisation is ",
                         q(part.get("max_utilisation"), "json:design/max_utilisation", "", 3), *where, ".")))
+    blocks.extend(_sway_blocks(part))
     if not checks:
         return blocks
     blocks.append(Heading(3, "Summary of the checks"))
@@ -141,3 +146,20 @@ def design_blocks(part: dict, u) -> list:
     if part.get("caution"):
         blocks.append(Note((T(part["caution"], "json:design/caution"),)))
     return blocks
+
+
+def _sway_blocks(part: dict) -> list:
+    """The sway sensitivity of every plane: alpha_cr on the design loads, its classification and what is missing."""
+    sway = part.get("sway") or []
+    if not sway:
+        return []
+    rows = tuple(((T(w["axis"], f"json:design/sway/{i}/axis"),),
+                  (q(w["alpha_cr"], f"json:design/sway/{i}/alpha_cr", "", 3),),
+                  (T(w["classification"], f"json:design/sway/{i}/classification"),),
+                  (T(w["reason"], f"json:design/sway/{i}/reason"),))
+                 for i, w in enumerate(sway))
+    return [Heading(3, "Sway sensitivity"),
+            Table((("Plane",), ("α_cr",), ("Classification",), ("Why",)), rows, numeric=(1,),
+                  caption=("α_cr is the lowest elastic critical load factor on the design loads (the lowest load "
+                           "factor divided by the design load factor); rule: ",
+                           T(sway[0]["source"], "json:design/sway/0/source"), "."))]

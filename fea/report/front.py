@@ -2,6 +2,8 @@
 
 from __future__ import annotations
 
+from typing import Any
+
 from ..cautions import CAUTION
 from ..results import CaseResults
 from ..version import version
@@ -39,10 +41,28 @@ def brief_blocks(res: CaseResults, parts: list[Part]) -> list:
     brief: list = [Table((("Plane",), ("Lowest load factor λ",), ("",)), tuple(rows), numeric=(1,),
                          caption=("Elastic critical load factors; the part on buckling gives the effective-length "
                                   "factors.",))]
+    from ..io.run_warnings import run_warnings
+
+    for i, w in enumerate(run_warnings(res)):
+        brief.append(Para(("WARNING: ", T(w["text"], f"json:warnings/{i}/text"), ".")))
+    design: Any = res.extras.get("design")
+    if design is not None and design.sway:
+        brief.append(Para(("Design check (", T(design.standard, "json:design/standard"), "): verdict ",
+                           T(design.verdict, "json:design/verdict"), ". ", _MISSING.get(design.verdict, ""))))
+        brief.extend(Para(("Sway sensitivity, ", T(w.axis, f"json:design/sway/{i}/axis"), " axis: α_cr ",
+                           q(w.alpha_cr, f"json:design/sway/{i}/alpha_cr", "", 3), ", ",
+                           T(w.classification, f"json:design/sway/{i}/classification"), "."))
+                     for i, w in enumerate(design.sway))
     extra = [p.title.lower() for p in parts if p.key not in STANDARD_PARTS]
     if extra:
         brief.append(Para(("This record also contains: " + ", ".join(extra) + ".",)))
     return brief
+
+
+#: What a verdict other than "passes" lacks, in plain words (no numbers: the brief traces every number).
+_MISSING = {"not verified": "Missing: a second-order analysis with imperfections, or the member check with bending "
+                            "(not yet offered); the axial checks alone do not verify this member.",
+            "fails": "See the design part and the warnings."}
 
 
 def caution() -> T:

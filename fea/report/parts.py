@@ -80,5 +80,5 @@ def report_parts(res: CaseResults, u: DisplayUnits, sketch: str | None, mode_fig
     for name, spec in optional.items():
         if name in res.extras:
             parts.append(_optional_part(name, spec, res.extras[name], u, figures))
-    parts.append(closing_part(warnings))
+    parts.append(closing_part(warnings, res))
     return parts
