@@ -153,3 +153,17 @@ def test_report_traces_verdict_and_warnings(text):
     assert check_numbers(html, res.case, data) > 0
     if data["warnings"]:
         assert "buckles elastically" in html
+
+
+def test_sizing_names_a_chosen_section_that_the_sway_sensitivity_leaves_not_verified():
+    # The sizing demo's top is held by a spring: with the lightest section passing the axial checks, alpha_cr is
+    # about 3.1 < 10 (EN 1993-1-1 5.2.1(3)), so `check` would say "not verified"; `size` must not hide it.
+    args = ["size", "cases/sizing_mezzanine_column.toml", "--catalogue", "cases/demo_catalogue.csv"]
+    text = run_cli(*args)
+    assert text.returncode == 0 and "Lightest passing section: DEMO-SQ 120x6" in text.stdout
+    assert "NOT VERIFIED with it: alpha_cr 3.09" in text.stdout
+    data = json.loads(run_cli(*args, "--json").stdout)
+    chosen = next(c for c in data["candidates"] if c["name"] == data["chosen"])
+    assert chosen["design"]["verdict"] == "not verified"
+    assert all(c["design"] is None or c["design"]["verdict"] in ("passes", "fails", "not verified")
+               for c in data["candidates"])

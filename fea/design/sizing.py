@@ -18,7 +18,7 @@ from ..model import Column
 from ..model.case import Case
 from ..solve.eigen import buckling
 from .check import DesignCheck, DesignResult, DesignSpec, design_check
-from .member import axis_buckling, member_data, segment_forces
+from .member import axis_buckling, design_of_case, member_data, segment_forces
 
 __all__ = ["Candidate", "CandidateResult", "RequiredInertia", "SizingResult", "with_section", "check_candidate",
            "required_inertia", "size"]
@@ -166,9 +166,8 @@ def check_candidate(case: Case, spec: DesignSpec, segments: Sequence[int], cand:
         res = _solve(case, cols)
     except (ModelError, SolverError) as exc:
         return CandidateResult(cand, None, math.nan, f"not solved: {exc}")
-    members = member_data(case, spec, areas)
-    forces = segment_forces(cols[0])
-    design = design_check(spec, members, forces, [(r.axis, axis_buckling(r)) for r in res])
+    # the same design check as `stanchion check`, with its sway classification of every plane
+    design = design_of_case(case, res, spec, areas=areas, columns=cols)
     return CandidateResult(cand, design, min(r.load_factor for r in res))
 
 
