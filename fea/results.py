@@ -66,6 +66,19 @@ class SegmentBuckling:
         k = self.effective_length_factor
         return None if k is None else k * self.length
 
+    @property
+    def advice(self) -> str:
+        """Why K is not a design value here, and what to use instead, in plain words ("" when K is meaningful).
+
+        A segment that carries little of the load or of the bending energy is carried along in a mode of the
+        whole column: its K = (pi / L) sqrt(E I / N_cr) comes out large only because its own N_cr is small
+        against the column's critical state, and it says nothing about the segment's own buckling length.
+        """
+        if self.meaningful or self.effective_length_factor is None:
+            return ""
+        return (f"this segment {self.note}: it is carried along in a buckling mode of the whole column, so "
+                f"its K (and K L) is not a design value; check the segment against its own N_cr instead")
+
 
 @dataclass(frozen=True)
 class BucklingResult:

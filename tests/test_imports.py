@@ -41,7 +41,7 @@ PACKAGE = "fea"
 #: lower ones only.  Patterns are paths from the repository root; ``*`` matches a whole folder
 #: (sub-folders included).  A package's ``__init__.py`` belongs to its folder's layer.
 LAYERS: list[tuple[str, tuple[str, ...]]] = [
-    ("base", ("fea/errors.py", "fea/cautions.py", "fea/version.py", "fea/util/*")),
+    ("base", ("fea/errors.py", "fea/cautions.py", "fea/notices.py", "fea/version.py", "fea/util/*")),
     ("units", ("fea/units.py", "fea/quantity.py")),
     ("model", ("fea/formulas.py", "fea/model/*", "fea/sections/*", "fea/results.py")),
     ("mesh", ("fea/mesh.py", "fea/elements.py")),

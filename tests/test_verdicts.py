@@ -93,7 +93,8 @@ def test_soft_base_without_design_warns_and_exits_1(tmp_path):
     assert res.governing.load_factor < 1
     out = run_cli("check", str(_write(tmp_path, SOFT)))
     assert out.returncode == 1, out.stderr
-    assert "WARNING:" in out.stdout and "buckles elastically under its case loads" in out.stdout
+    assert "WARNING (buckles-under-case-loads):" in out.stdout
+    assert "buckles elastically under its case loads" in out.stdout
     js = run_cli("check", str(_write(tmp_path, SOFT)), "--json")
     assert js.returncode == 1
     keys = [w["key"] for w in json.loads(js.stdout)["warnings"]]

@@ -23,7 +23,7 @@ def run(args: argparse.Namespace) -> int:
     from ..study.paths import parse_key
     from ..study.run import case_bounds
     from ..version import version
-    from .study_common import finish, load_study, plan_outputs
+    from .study_common import case_load_factors, finish, load_study, plan_outputs
 
     study, spec = load_study(args)
     plan = plan_outputs(args)
@@ -40,4 +40,5 @@ def run(args: argparse.Namespace) -> int:
     else:
         raise FeaError("no uncertain spring: give --spring KEY LOW HIGH or [[study.bounds.spring]] in the case")
     cb = case_bounds(study, ranges)
-    return finish(args, plan, bounds_dict(study, cb, version()), lambda: bounds_lines(study, cb))
+    lams = case_load_factors(study)
+    return finish(args, plan, bounds_dict(study, cb, version(), lams), lambda: bounds_lines(study, cb, lams))

@@ -25,10 +25,10 @@ def add_arguments(p: argparse.ArgumentParser) -> None:
 
 
 def run(args: argparse.Namespace) -> int:
-    from ..io.study_output import brace_dict, brace_lines
+    from ..io.study_output import brace_dict, brace_lines, case_notices
     from ..study.run import case_brace
     from ..version import version
-    from .study_common import check_plot, finish, load_study, plan_outputs
+    from .study_common import case_load_factors, check_plot, finish, load_study, plan_outputs
 
     study, spec = load_study(args)
     check_plot(args)
@@ -42,10 +42,12 @@ def run(args: argparse.Namespace) -> int:
                     fraction=args.fraction if args.fraction is not None else (b.fraction if b else 0.95),
                     eps=args.eps if args.eps is not None else (b.eps if b else 1e-6),
                     bow=args.bow if args.bow is not None else (b.bow if b else 500.0))
-    data = brace_dict(study, cb, version())
+    lams = case_load_factors(study)
+    data = brace_dict(study, cb, version(), lams)
     figure = None
     if args.plot:
         from ..plot.study import plot_brace
 
-        figure = plot_brace(cb.result, title=study.case.title, display=study.case.display)
-    return finish(args, plan, data, lambda: brace_lines(study, cb, args.plot), figure=figure)
+        figure = plot_brace(cb.result, title=study.case.title, display=study.case.display,
+                            case_below_one=any(n.level == "warning" for n in case_notices(lams)))
+    return finish(args, plan, data, lambda: brace_lines(study, cb, args.plot, lams), figure=figure)

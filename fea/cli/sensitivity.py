@@ -19,9 +19,10 @@ def run(args: argparse.Namespace) -> int:
     from ..io.study_output import sensitivity_dict, sensitivity_lines
     from ..study.run import case_sensitivities
     from ..version import version
-    from .study_common import finish, load_study, plan_outputs
+    from .study_common import case_load_factors, finish, load_study, plan_outputs
 
     study, _spec = load_study(args)
     plan = plan_outputs(args)
     cs = case_sensitivities(study, check=not args.no_check)
-    return finish(args, plan, sensitivity_dict(study, cs, version()), lambda: sensitivity_lines(study, cs))
+    lams = case_load_factors(study)
+    return finish(args, plan, sensitivity_dict(study, cs, version(), lams), lambda: sensitivity_lines(study, cs, lams))

@@ -1,6 +1,7 @@
 """``stanchion size CASE --catalogue FILE``: the lightest catalogue section that passes the case's design check.
 
-Exit status 0 when a section passes, 1 when none does, 2 on bad input.
+Exit status 0 when a section passes, 1 when none does or when the chosen one buckles under the case loads
+(lowest load factor below 1), 2 on bad input.
 """
 
 from __future__ import annotations
@@ -54,7 +55,7 @@ def _segment_indices(case, refs: list[str]) -> list[int]:
 def run(args: argparse.Namespace) -> int:
     from ..design.sizing import size
     from ..io.catalogue import load_catalogue
-    from ..io.sizing_output import sizing_json, sizing_lines
+    from ..io.sizing_output import sizing_json, sizing_lines, sizing_notices
     from ..pipeline import load_case
 
     case = load_case(args.case)
@@ -89,7 +90,7 @@ def run(args: argparse.Namespace) -> int:
 
         fig = plot_candidates(result, title=case.title).figure
     if args.json and args.json != "-":
-        plan.add(args.json, text + "\n", "--json")
+        plan.add(args.json, f"{text}\n", "--json")
     if fig is not None:
         plan.add(args.plot, figure_writer(fig), "--plot")
     plan.write()
@@ -97,4 +98,4 @@ def run(args: argparse.Namespace) -> int:
         print(text)
     else:
         print("\n".join(sizing_lines(result, case.title, case.display, args.top)))
-    return 0 if result.chosen is not None else 1
+    return 0 if result.chosen is not None and not sizing_notices(result) else 1

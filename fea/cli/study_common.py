@@ -1,8 +1,9 @@
 """What the restraint-study commands (sweep, brace, sensitivity, bounds) share.
 
 Reading the case into a :class:`~fea.study.target.StudyCase` with the function
-that rebuilds it from a changed document, the shared options, the progress
-bar, and writing and printing the outputs.
+that rebuilds it from a changed document, the lowest load factor of the case
+as given (a study exits 1 when it is below 1), the shared options, the
+progress bar, and writing and printing the outputs.
 """
 
 from __future__ import annotations
@@ -15,7 +16,7 @@ from pathlib import Path
 from typing import TYPE_CHECKING, Callable
 
 from ..errors import FeaError
-from .common import EXIT_OK
+from .common import EXIT_FAILED_CHECK, EXIT_OK
 from .outputs import OutputPlan, add_no_clobber, figure_writer
 
 if TYPE_CHECKING:
@@ -24,7 +25,7 @@ if TYPE_CHECKING:
     from ..study.target import StudyCase
 
 __all__ = ["rebuild_case", "study_from_text", "load_study", "add_common", "check_plot", "jobs", "Progress",
-           "finish", "plan_outputs"]
+           "finish", "plan_outputs", "case_load_factors"]
 
 
 def rebuild_case(document: dict) -> Case:
@@ -54,6 +55,26 @@ def load_study(args: argparse.Namespace) -> tuple[StudyCase, StudySpec]:
 
     case = load_case(args.case)
     return StudyCase(case, rebuild_case), case.extras.get("study") or StudySpec()
+
+
+def case_load_factors(study: StudyCase) -> dict[str, float | None]:
+    """The lowest load factor of every plane of the case as given.
+
+    A plane that is a mechanism, or that its permanent loads alone buckle, has 0 (as a sweep point has);
+    a plane that cannot be solved for another reason has None (the study itself says why, or fails).
+    """
+    from ..errors import ModelError
+    from ..solve.eigen import buckling
+
+    out: dict[str, float | None] = {}
+    for axis, col in study.case.planes:
+        try:
+            out[axis] = buckling(col, n_modes=1, tol=study.case.tolerance, axis=axis).load_factor
+        except ModelError as exc:
+            out[axis] = 0.0 if exc.field == "restraints" or "permanent loads alone" in exc.message else None
+        except FeaError:
+            out[axis] = None
+    return out
 
 
 def add_common(p: argparse.ArgumentParser, csv: bool = False, plot: bool = False) -> None:
@@ -120,7 +141,11 @@ class Progress:
 def finish(args: argparse.Namespace, plan: OutputPlan, data: dict, lines: Callable[[], list[str]],
            csv: str | None = None, figure=None) -> int:
     """Write the JSON (and CSV, and the chart to every ``--plot`` file) all together, then print the JSON or
-    the summary."""
+    the summary.
+
+    Exit status 1 when the JSON carries a run warning of level "warning" (the case as given buckles under
+    its case loads); points of the study's range below load factor 1 are marked but leave it at 0.
+    """
     if getattr(args, "json", None) and args.json != "-":
         plan.add(args.json, json.dumps(data, indent=1, allow_nan=False) + "\n", "--json")
     if csv is not None and getattr(args, "csv", None):
@@ -128,9 +153,10 @@ def finish(args: argparse.Namespace, plan: OutputPlan, data: dict, lines: Callab
     for f in getattr(args, "plot", None) or []:
         plan.add(f, figure_writer(figure), "--plot")
     plan.write()
+    status = EXIT_FAILED_CHECK if any(w.get("level") == "warning" for w in data.get("warnings", ())) else EXIT_OK
     if args.json == "-":
         print(json.dumps(data, indent=1, allow_nan=False))
-        return EXIT_OK
+        return status
     for line in lines():
         print(line)
-    return EXIT_OK
+    return status

@@ -66,11 +66,11 @@ def _parameters(args: argparse.Namespace, spec) -> tuple[list, tuple[int, ...] |
 
 
 def run(args: argparse.Namespace) -> int:
-    from ..io.study_output import sweep_csv, sweep_dict, sweep_lines
+    from ..io.study_output import case_notices, sweep_csv, sweep_dict, sweep_lines
     from ..study.paths import parse_key
     from ..study.sweep import make_range, sweep
     from ..version import version
-    from .study_common import Progress, check_plot, finish, jobs, load_study, plan_outputs
+    from .study_common import Progress, case_load_factors, check_plot, finish, jobs, load_study, plan_outputs
 
     study, spec = load_study(args)
     check_plot(args)
@@ -78,10 +78,12 @@ def run(args: argparse.Namespace) -> int:
     params, segments, method = _parameters(args, spec)
     ranges = [make_range(study, parse_key(p.key), p.start, p.stop, p.points, p.scale) for p in params]
     res = sweep(study, ranges, segments=segments, method=method, jobs=jobs(args, spec), progress=Progress("sweep"))
-    data = sweep_dict(study, res, version())
+    lams = case_load_factors(study)
+    data = sweep_dict(study, res, version(), lams)
     figure = None
     if args.plot:
         from ..plot.study import plot_sweep
 
-        figure = plot_sweep(res, title=study.case.title, display=study.case.display)
-    return finish(args, plan, data, lambda: sweep_lines(study, res, args.plot), csv=sweep_csv(res), figure=figure)
+        figure = plot_sweep(res, title=study.case.title, display=study.case.display,
+                            case_below_one=any(n.level == "warning" for n in case_notices(lams)))
+    return finish(args, plan, data, lambda: sweep_lines(study, res, args.plot, lams), csv=sweep_csv(res), figure=figure)

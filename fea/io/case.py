@@ -26,6 +26,7 @@ from typing import Any, Callable, Mapping
 from ..errors import CaseError, ModelError
 from ..model import Column, DistributedLoad, Foundation, LeaningLoad, PointLoad, Restraint, Segment
 from ..model.case import Case, SegmentInfo, TableRef
+from ..model.ideal_supports import NOMINAL_FIXITIES, is_nominal, nominal_rotation_at
 from ..units import DisplayUnits, parse
 from ..util.checks import as_text
 from .limits import MAX_CASE_BYTES, MAX_MODES, check_counts, read_limited
@@ -115,7 +116,7 @@ def parse_document(doc: dict, source: str = "", sha256: str = "",
     planes: tuple[str, ...] = ("in-plane",) if "I" in parsed[0].props else AXES
     station = Stations(parsed[-1].top)
     origins: dict[str, tuple[TableRef, ...]] = {}
-    rest = _restraints(doc, station, planes, E, origins)
+    rest = _restraints(doc, station, planes, E, origins, parsed)
     point, dist = _loads(doc, station)
     found = _foundations(doc, station, planes, origins)
     lean = _leaning(doc, station, planes, origins)
@@ -278,8 +279,8 @@ def _plane_segments(parsed: list[_SegmentInput], axis: str) -> tuple[Segment, ..
     return tuple(out)
 
 
-def _restraints(doc: dict, station: Stations, planes: tuple[str, ...], E: float | None,
-                origins: dict) -> dict[str, list[Restraint]]:
+def _restraints(doc: dict, station: Stations, planes: tuple[str, ...], E: float | None, origins: dict,
+                parsed: list[_SegmentInput]) -> dict[str, list[Restraint]]:
     rest: dict[str, list[Restraint]] = {a: [] for a in planes}
     for i, t in enumerate(as_tables(doc, "restraint")):
         p = f"restraint[{i + 1}]"
@@ -289,7 +290,12 @@ def _restraints(doc: dict, station: Stations, planes: tuple[str, ...], E: float 
         at = station(t["at"], f"{p}.at")
         ax = axes(t.get("axis"), f"{p}.axis", planes)
         lateral = spring(f"{p}.lateral", t.get("lateral", "free"), "translational stiffness")
-        rotation = spring(f"{p}.rotation", t.get("rotation", "free"), "rotational stiffness")
+        raw_rotation = t.get("rotation", "free")
+        nominal = is_nominal(raw_rotation)
+        if isinstance(raw_rotation, str) and "nominal" in raw_rotation.lower() and not nominal:
+            raise CaseError(f"{p}.rotation", f"expected {' or '.join(map(repr, NOMINAL_FIXITIES))}, a rotational "
+                                             f"stiffness, 'free' or 'rigid', got {raw_rotation!r}")
+        rotation = 0.0 if nominal else spring(f"{p}.rotation", raw_rotation, "rotational stiffness")
         beams = t.get("beam", [])
         if isinstance(beams, dict):
             beams = [beams]
@@ -297,14 +303,32 @@ def _restraints(doc: dict, station: Stations, planes: tuple[str, ...], E: float 
             raise CaseError(f"{p}.beam", "expected [[restraint.beam]] tables")
         for j, b in enumerate(beams):
             rotation += _beam_stiffness(as_table(b, f"{p}.beam[{j + 1}]"), f"{p}.beam[{j + 1}]", E)
-        if lateral == 0 and rotation == 0:
+        by_plane = {a: rotation for a in ax}
+        if nominal:
+            by_plane = {a: rotation + _nominal_rotation(raw_rotation, f"{p}.rotation", at, station.H,
+                                                        parsed, a) for a in ax}
+        elif lateral == 0 and rotation == 0:
             raise CaseError(p, "restrains nothing: give lateral and/or rotation")
         origins[p] = tuple(TableRef(a, "restraints", len(rest[a])) for a in ax)
         for a in ax:
-            rest[a].append(Restraint(at, lateral, rotation))
+            rest[a].append(Restraint(at, lateral, by_plane[a]))
     if not any(rest.values()):
         raise CaseError("restraint", "no [[restraint]] given: the column is unsupported")
     return rest
+
+
+def _nominal_rotation(word: str, path: str, at: float, H: float, parsed: list[_SegmentInput], axis: str) -> float:
+    """The rotational stiffness of a nominal fixity (``"nominally-fixed"``, ``"nominally-pinned"``) in ``axis``.
+
+    The rule and its source: :func:`fea.model.ideal_supports.nominal_rotation_stiffness`.
+    """
+    if 1e-9 * H < at < H * (1 - 1e-9):
+        raise CaseError(path, f"{word!r} is a column-end condition: allowed only at the base or the top, not at "
+                              f"{at:g} m (give a rotational stiffness there)")
+    try:
+        return nominal_rotation_at(word, _plane_segments(parsed, axis), at)
+    except ModelError as exc:  # pragma: no cover - the segments are checked when parsed
+        raise CaseError(path, exc.message) from None
 
 
 def _loads(doc: dict, station: Stations) -> tuple[list[PointLoad], list[DistributedLoad]]:

@@ -5,7 +5,9 @@ from __future__ import annotations
 from typing import Any, Callable, Mapping
 
 from ..cautions import CAUTION, LIMITATIONS
-from ..results import BucklingResult, CaseResults
+from ..model.column import Column
+from ..model.ideal_supports import ideal_case
+from ..results import BucklingResult, CaseResults, SegmentBuckling
 from ..util.numbers import finite_or_none as _num
 from ..version import version
 from .run_warnings import run_warnings
@@ -13,8 +15,17 @@ from .run_warnings import run_warnings
 __all__ = ["result_dict", "buckling_dict"]
 
 
-def buckling_dict(r: BucklingResult) -> dict[str, Any]:
-    """One bending plane: load factors, per-segment figures and mode shapes (SI)."""
+def _ideal(column: Column | None, s: SegmentBuckling) -> dict[str, Any] | None:
+    """The nearest ideal support case of a segment bounded by perfectly rigid restraints, or None."""
+    if column is None or s.effective_length_factor is None or not s.meaningful:
+        return None
+    ideal = ideal_case(column, s.index)
+    return None if ideal is None else ideal.as_dict()
+
+
+def buckling_dict(r: BucklingResult, column: Column | None = None) -> dict[str, Any]:
+    """One bending plane: load factors, per-segment figures and mode shapes (SI); ``column`` (the plane's model)
+    adds the design K recommended for segments between idealised supports."""
     return {
         "axis": r.axis,
         "load_factors": [float(v) for v in r.load_factors],
@@ -40,6 +51,8 @@ def buckling_dict(r: BucklingResult) -> dict[str, Any]:
                 "energy_share": s.energy_share,
                 "k_meaningful": s.meaningful,
                 "note": s.note,
+                "k_advice": s.advice,
+                "ideal_support": _ideal(column, s),
             }
             for s in r.segments
         ],
@@ -62,7 +75,7 @@ def result_dict(res: CaseResults, parts: Mapping[str, Callable[[Any], Any]]) -> 
         "height_m": case.height,
         "governing_axis": res.governing_axis,
         "governing_load_factor": res.governing.load_factor,
-        "buckling": [buckling_dict(r) for r in res.buckling],
+        "buckling": [buckling_dict(r, case.column(r.axis)) for r in res.buckling],
     }
     for name, value in res.extras.items():
         if name in parts:

@@ -9,10 +9,12 @@ from __future__ import annotations
 
 import io
 import math
+from collections.abc import Mapping
 
 import numpy as np
 
 from ..cautions import CAUTION
+from ..notices import Notice
 from ..study.paths import parse_key
 from ..util.checks import one_line
 from ..util.numbers import finite_list
@@ -20,7 +22,175 @@ from ..util.numbers import finite_or_none as _num
 from .summary import fmt
 
 __all__ = ["sweep_dict", "sweep_csv", "brace_dict", "sensitivity_dict", "bounds_dict", "sweep_lines",
-           "brace_lines", "sensitivity_lines", "bounds_lines", "display_unit", "stiffness_text"]
+           "brace_lines", "sensitivity_lines", "bounds_lines", "display_unit", "stiffness_text",
+           "case_notices", "below_one", "BELOW_ONE_KEY", "BELOW_ONE_MARK", "BELOW_ONE_LEGEND",
+           "sweep_below_one", "brace_below_one", "bounds_below_one"]
+
+#: Key of the run warning when the case as given buckles under its case loads (see fea/notices.py).
+BELOW_ONE_KEY = "buckles-under-case-loads"
+#: Trailing mark of a table row whose lowest load factor is below 1.
+BELOW_ONE_MARK = "  < 1"
+#: The legend of the mark, printed once under a table that shows it.
+BELOW_ONE_LEGEND = "  < 1: lowest load factor below 1: the column buckles under the case loads at that point"
+
+#: Lowest load factor of each plane of the case as given (None: the plane could not be solved).
+CaseLoadFactors = Mapping[str, "float | None"]
+
+
+# ---------------------------------------------------------------------------
+# load factors below one
+
+
+def below_one(lam) -> np.ndarray:
+    """Mask of load factors below 1 (a mechanism's 0 counts; NaN, a point not analysed, does not)."""
+    a = np.asarray(lam, dtype=float)
+    with np.errstate(invalid="ignore"):
+        return np.less(a, 1.0, where=~np.isnan(a), out=np.zeros(a.shape, bool))
+
+
+def case_notices(load_factors: CaseLoadFactors | None) -> list[Notice]:
+    """A warning for every plane of the case as given whose lowest load factor is below 1."""
+    out = []
+    for axis, lam in (load_factors or {}).items():
+        if lam is None or not lam < 1.0:
+            continue
+        what = ("is a mechanism under its case loads (load factor 0)" if lam == 0 else
+                f"has its lowest load factor {lam:.4g} below 1")
+        out.append(Notice(BELOW_ONE_KEY, f"{axis} axis: the case as given {what}: the column buckles "
+                                         "elastically under its case loads", axis))
+    return out
+
+
+def _case_part(load_factors: CaseLoadFactors | None) -> dict:
+    """The JSON of the case as given: its load factors and run warnings."""
+    if load_factors is None:
+        return {}
+    return {"case_load_factors": {a: _num(v) if v is not None else None for a, v in load_factors.items()},
+            "warnings": [n.as_dict() for n in case_notices(load_factors)]}
+
+
+def _warning_lines(load_factors: CaseLoadFactors | None) -> list[str]:
+    return [f"WARNING: {n.text}" for n in case_notices(load_factors)]
+
+
+def _runs(mask: np.ndarray) -> list[tuple[int, int]]:
+    """(first, last) index of every run of True in a 1-D mask."""
+    out, start = [], None
+    for i, m in enumerate(mask.tolist() + [False]):
+        if m and start is None:
+            start = i
+        elif not m and start is not None:
+            out.append((start, i - 1))
+            start = None
+    return out
+
+
+def _crossing(x: np.ndarray, lam: np.ndarray, i: int, j: int, log: bool) -> float | None:
+    """Where the load factor passes 1 between points ``i`` and ``j``, by linear interpolation (in log x on a
+    logarithmic range); None when the ends cannot be interpolated (free, rigid or not analysed)."""
+    a, b, la, lb = float(x[i]), float(x[j]), float(lam[i]), float(lam[j])
+    if not (math.isfinite(a) and math.isfinite(b) and math.isfinite(la) and math.isfinite(lb)) or la == lb:
+        return None
+    if log:
+        if a <= 0 or b <= 0:
+            return None
+        a, b = math.log10(a), math.log10(b)
+    t = min(1.0, max(0.0, (1.0 - la) / (lb - la)))
+    v = a + t * (b - a)
+    return 10.0**v if log else v
+
+
+def _ranges_below_one(x: np.ndarray, lam: np.ndarray, log: bool, text) -> list[str]:
+    """Each stretch of a 1-D range where the load factor is below 1, as "from A to B" (``text``: value -> str,
+    ends interpolated between the points on either side are marked "about")."""
+    mask = below_one(lam)
+    n = x.size
+    out = []
+    for i, j in _runs(mask):
+        if i == 0 and j == n - 1:
+            out.append("over the whole range")
+            continue
+        ends = []
+        for inner, outer, edge in ((i, i - 1, i == 0), (j, j + 1, j == n - 1)):
+            if edge:
+                ends.append((float(x[inner]), text(float(x[inner]))))
+                continue
+            c = _crossing(x, lam, inner, outer, log)
+            ends.append((float(x[inner]), text(float(x[inner]))) if c is None else (c, "about " + text(c)))
+        (va, ta), (vb, tb) = sorted(ends, key=lambda e: e[0])
+        out.append(f"at {ta}" if i == j and ta == tb else f"from {ta} to {tb}")
+    return out
+
+
+def sweep_below_one(study, res) -> list[str]:
+    """Sentences naming the stretches (one parameter) or the part of the grid (two) below load factor 1."""
+    d = study.case.display
+    g = res.governing
+    mask = below_one(g)
+    if not mask.any():
+        return []
+    if len(res.ranges) == 1:
+        r = res.ranges[0]
+        unit, scale = display_unit(r.key.si_unit, d)
+
+        def text(v: float) -> str:
+            if r.key.is_spring and (v == 0 or math.isinf(v)):
+                return "free" if v == 0 else "rigid"
+            return f"{fmt(v / scale)} {unit}"
+
+        return [f"load factor below 1 for {r.key.text} {s}"
+                for s in _ranges_below_one(r.values, g, r.scale == "log", text)]
+    parts = []
+    idx = np.nonzero(mask)
+    for axis, r in enumerate(res.ranges):
+        unit, scale = display_unit(r.key.si_unit, d)
+        vals = r.values[np.unique(idx[axis])]
+        lo, hi = np.min(vals), np.max(vals)
+
+        def one(v: float) -> str:
+            if r.key.is_spring and (v == 0 or math.isinf(v)):
+                return "free" if v == 0 else "rigid"
+            return fmt(v / scale)
+
+        parts.append(f"{r.key.text} {one(lo)} to {one(hi)} {unit}" if lo != hi else f"{r.key.text} {one(lo)} {unit}")
+    return [f"load factor below 1 at {int(mask.sum())} of {mask.size} grid points, within {' and '.join(parts)}"]
+
+
+def brace_below_one(study, cb) -> list[str]:
+    """Sentences on the brace study's load factors below 1 (braces as given, removed, rigid; the curve)."""
+    r, d = cb.result, study.case.display
+    if r.load_factor_rigid < 1.0:
+        return [f"load factor below 1 even with rigid braces ({fmt(r.load_factor_rigid)}): no brace stiffness "
+                "keeps the column from buckling under the case loads"]
+    lam = np.asarray(r.curve_load_factor, dtype=float)
+    k = np.asarray(r.curve_k, dtype=float)
+    low = below_one(lam)
+    out = []
+    if low.any():
+        # the load factor never decreases as the braces stiffen: the stretch below 1 is the soft end
+        j = int(np.nonzero(low)[0][-1])
+        c = _crossing(k, lam, j, j + 1, True) if j + 1 < k.size else None
+        where = (f"below about {stiffness_text(c, r.kind, d)}" if c is not None else
+                 f"up to {stiffness_text(float(k[j]), r.kind, d)} (the stiffest drawn)" if j + 1 == k.size else
+                 f"up to {stiffness_text(float(k[j]), r.kind, d)}")
+        out.append(f"load factor below 1 for brace stiffness {where}")
+    if r.load_factor_free < 1.0 and not below_one(lam).any():
+        out.append(f"load factor below 1 with the braces removed ({fmt(r.load_factor_free)})")
+    return out
+
+
+def bounds_below_one(study, cb) -> list[str]:
+    """Sentences naming the planes whose box of spring ranges reaches below load factor 1."""
+    out = []
+    for p in cb.planes:
+        m = below_one(p.corner_load_factors)
+        if m.any():
+            out.append(f"load factor below 1 in the {p.axis or 'in-plane'} plane at {int(m.sum())} of {m.size} "
+                       f"corners of the box (lowest {fmt(p.load_factor_min)}, every spring at its low end)")
+    for a, v in cb.fixed.items():
+        if v < 1.0:
+            out.append(f"load factor below 1 in the {a} plane ({fmt(v)}), which no uncertain spring acts in")
+    return out
 
 
 # ---------------------------------------------------------------------------
@@ -33,9 +203,11 @@ def _header(study, name: str, version: str) -> dict:
             "caution": CAUTION, "title": case.title, "case_file": case.source, "case_sha256": case.sha256}
 
 
-def sweep_dict(study, res, version: str) -> dict:
-    """The JSON of a sweep (``version``: the tool's version for the header)."""
+def sweep_dict(study, res, version: str, case_load_factors: CaseLoadFactors | None = None) -> dict:
+    """The JSON of a sweep (``version``: the tool's version for the header; ``case_load_factors``: the lowest
+    load factor of each plane of the case as given, for its run warnings)."""
     out = _header(study, "sweep", version)
+    out.update(_case_part(case_load_factors))
     out.update({
         "method": res.method, "tolerance": res.tolerance,
         "parameters": [{"key": r.key.text, "unit": r.key.si_unit, "scale": r.scale,
@@ -46,6 +218,8 @@ def sweep_dict(study, res, version: str) -> dict:
         "load_factor": {"governing": finite_list(res.governing),
                         **{a: finite_list(res.load_factors[a]) for a in res.axes}},
         "governing_axis": np.asarray(res.axes, dtype=object)[res.governing_axis].tolist(),
+        "below_one": below_one(res.governing).tolist(),
+        "below_one_ranges": sweep_below_one(study, res),
         "K": {a: {f"segment {s + 1}": finite_list(res.K[a][..., j]) for j, s in enumerate(res.segments)}
               for a in res.axes},
         "notes": [{"point": int(i), "message": m} for i, m in res.notes],
@@ -56,16 +230,19 @@ def sweep_dict(study, res, version: str) -> dict:
 def sweep_csv(res) -> str:
     """The CSV table of a sweep: one row per point (SI, units in the header)."""
     buf = io.StringIO()
-    head = [f"{r.key.text} [{r.key.si_unit}]" for r in res.ranges] + ["load_factor [-]", "governing_axis"]
+    head = [f"{r.key.text} [{r.key.si_unit}]" for r in res.ranges] + ["load_factor [-]", "governing_axis",
+                                                                      "below_one"]
     for a in res.axes:
         head.append(f"load_factor_{a} [-]")
     for a in res.axes:
         head += [f"K_{a}_segment{s + 1} [-]" for s in res.segments]
     buf.write(",".join(head) + "\n")
     grids = np.meshgrid(*[r.values for r in res.ranges], indexing="ij")
+    low = below_one(res.governing)
     for idx in np.ndindex(*res.shape):
         row = [repr(float(g[idx])) for g in grids]
-        row += [repr(float(res.governing[idx])), res.axes[int(res.governing_axis[idx])]]
+        row += [repr(float(res.governing[idx])), res.axes[int(res.governing_axis[idx])],
+                "true" if low[idx] else "false"]
         row += [repr(float(res.load_factors[a][idx])) for a in res.axes]
         for a in res.axes:
             row += [repr(float(v)) for v in res.K[a][idx]]
@@ -73,10 +250,11 @@ def sweep_csv(res) -> str:
     return buf.getvalue()
 
 
-def brace_dict(study, cb, version: str) -> dict:
+def brace_dict(study, cb, version: str, case_load_factors: CaseLoadFactors | None = None) -> dict:
     """The JSON of a brace study."""
     r = cb.result
     out = _header(study, "brace", version)
+    out.update(_case_part(case_load_factors))
     out.update({
         "axis": r.axis, "restraints": list(cb.tables), "kind": r.kind, "stations_m": list(r.stations),
         "stiffness_unit": "N/m" if r.kind == "lateral" else "N*m/rad",
@@ -100,20 +278,25 @@ def brace_dict(study, cb, version: str) -> dict:
             "forces_N": [_num(f) for f in cb.force.forces], "force_over_axial": [_num(f) for f in cb.force.ratios],
             "critical_load_factor": _num(cb.force.critical_load_factor)},
         "brace_force_note": cb.force_note,
-        "curve": {"stiffness": [float(v) for v in r.curve_k], "load_factor": [_num(v) for v in r.curve_load_factor]},
+        "curve": {"stiffness": [float(v) for v in r.curve_k], "load_factor": [_num(v) for v in r.curve_load_factor],
+                  "below_one": below_one(r.curve_load_factor).tolist()},
+        "below_one": {"given": bool(r.load_factor_given < 1.0), "rigid": bool(r.load_factor_rigid < 1.0),
+                      "free": bool(r.load_factor_free < 1.0)},
+        "below_one_ranges": brace_below_one(study, cb),
     })
     return out
 
 
-def sensitivity_dict(study, cs, version: str) -> dict:
+def sensitivity_dict(study, cs, version: str, case_load_factors: CaseLoadFactors | None = None) -> dict:
     """The JSON of the spring sensitivities."""
     out = _header(study, "sensitivity", version)
+    out.update(_case_part(case_load_factors))
     out.update({
         "load_factors": {a: _num(v) for a, v in cs.load_factors.items()},
         "governing_axis": cs.governing_axis,
         "springs": [{"restraint": t, "axis": e.axis, "kind": e.kind, "at_m": e.at,
                      "stiffness": _num(e.stiffness), "unit": "N/m" if e.kind == "lateral" else "N*m/rad",
-                     "rigid": e.rigid, "load_factor": _num(e.load_factor),
+                     "rigid": e.rigid, "load_factor": _num(e.load_factor), "below_one": bool(e.load_factor < 1.0),
                      "derivative": _num(e.derivative), "normalised": _num(e.normalised),
                      "finite_difference": _num(e.fd_derivative),
                      "relative_difference": _num(e.fd_relative_difference), "note": e.note}
@@ -124,9 +307,10 @@ def sensitivity_dict(study, cs, version: str) -> dict:
     return out
 
 
-def bounds_dict(study, cb, version: str) -> dict:
+def bounds_dict(study, cb, version: str, case_load_factors: CaseLoadFactors | None = None) -> dict:
     """The JSON of the fixity bounds."""
     out = _header(study, "bounds", version)
+    out.update(_case_part(case_load_factors))
     out.update({
         "springs": [{"key": k, "low": _num(lo), "high": _num(hi)} for k, lo, hi in zip(cb.keys, cb.low, cb.high)],
         "statement": "the lowest load factor never decreases as a spring stiffens, so the corners of the box "
@@ -135,10 +319,14 @@ def bounds_dict(study, cb, version: str) -> dict:
         "planes": [{"axis": p.axis, "load_factor_min": _num(p.load_factor_min),
                     "load_factor_max": _num(p.load_factor_max),
                     "K_min": [_num(v) for v in p.K_min], "K_max": [_num(v) for v in p.K_max],
-                    "corners": [{"stiffness": [_num(v) for v in c], "load_factor": _num(lam)}
+                    "below_one": bool(p.load_factor_min < 1.0),
+                    "corners": [{"stiffness": [_num(v) for v in c], "load_factor": _num(lam),
+                                 "below_one": bool(lam < 1.0)}
                                 for c, lam in zip(p.corners, p.corner_load_factors)],
                     "mesh_level": p.level} for p in cb.planes],
         "unaffected_planes": {a: _num(v) for a, v in cb.fixed.items()},
+        "below_one": bool(cb.load_factor_min < 1.0),
+        "below_one_ranges": bounds_below_one(study, cb),
     })
     return out
 
@@ -189,10 +377,11 @@ def _ending(charts=()) -> list[str]:
     return [f"  chart written to {f}" for f in charts] + [CAUTION]
 
 
-def sweep_lines(study, res, charts=()) -> list[str]:
-    """The summary of a sweep: a table of a one-parameter sweep, the range of a two-parameter one."""
+def sweep_lines(study, res, charts=(), case_load_factors: CaseLoadFactors | None = None) -> list[str]:
+    """The summary of a sweep: a table of a one-parameter sweep, the range of a two-parameter one; the case's
+    warnings first, and the stretches of the range below load factor 1 after the table."""
     ranges = res.ranges
-    out = [_title(study),
+    out = [_title(study), *_warning_lines(case_load_factors),
            f"sweep of {' and '.join(r.key.text for r in ranges)}: {res.governing.size} points, {res.method} path, "
            f"tolerance {res.tolerance:.0e}"]
     if len(ranges) == 1:
@@ -201,6 +390,7 @@ def sweep_lines(study, res, charts=()) -> list[str]:
         g = res.governing
         out.append(f"  load factor from {fmt(np.nanmin(g))} to {fmt(np.nanmax(g))} over the "
                    f"{g.shape[0]} x {g.shape[1]} grid (all values in --csv / --json)")
+    out += [f"  {t}" for t in sweep_below_one(study, res)]
     if res.notes:
         out.append(f"  {len(res.notes)} point(s) could not be analysed; first: {res.notes[0][1]}")
     return out + _ending(charts)
@@ -215,24 +405,32 @@ def _sweep_table(study, res) -> list[str]:
     Kg = res.K_governing()
     step = max(1, r.values.size // 15)
     shown = sorted(set(list(range(0, r.values.size, step)) + [r.values.size - 1]))
+    low = below_one(res.governing)
     for i in shown:
         v = r.values[i]
         vt = "free" if r.key.is_spring and v == 0 else "rigid" if math.isinf(v) else fmt(v / scale)
         out.append(f"  {vt:>28} {fmt(res.governing[i]):>12} {res.axes[res.governing_axis[i]]:>8} "
-                   + " ".join(f"{'-' if math.isnan(k) else f'{k:.4f}':>9}" for k in Kg[i]))
+                   + " ".join(f"{'-' if math.isnan(k) else f'{k:.4f}':>9}" for k in Kg[i])
+                   + (BELOW_ONE_MARK if low[i] else ""))
     if len(shown) < r.values.size:
         out.append(f"  ({len(shown)} of {r.values.size} rows shown; all in --csv / --json)")
+    if low[shown].any():
+        out.append(BELOW_ONE_LEGEND)
     return out
 
 
-def brace_lines(study, cb, charts=()) -> list[str]:
+def brace_lines(study, cb, charts=(), case_load_factors: CaseLoadFactors | None = None) -> list[str]:
     """The summary of a brace study."""
     r, d = cb.result, study.case.display
-    out = [_title(study),
+
+    def lf(v: float) -> str:
+        return fmt(v) + (" (< 1)" if v < 1.0 else "")
+
+    out = [_title(study), *_warning_lines(case_load_factors),
            f"brace study, {r.axis} plane, {r.kind} restraint(s) {', '.join(map(str, cb.tables))} at "
            f"{', '.join(fmt(d.L(s)) for s in r.stations)} {d.length}, varied together",
-           f"  load factor: braces as given {fmt(r.load_factor_given)}, rigid {fmt(r.load_factor_rigid)}, "
-           f"removed {fmt(r.load_factor_free) if r.load_factor_free > 0 else '0 (mechanism)'}",
+           f"  load factor: braces as given {lf(r.load_factor_given)}, rigid {lf(r.load_factor_rigid)}, "
+           f"removed {lf(r.load_factor_free) if r.load_factor_free > 0 else '0 (mechanism)'}",
            f"  threshold stiffness (load factor within {r.eps:.0e} of rigid): {stiffness_text(r.threshold, r.kind, d)}",
            f"  stiffness for {100 * r.fraction:g}% of the rigid-brace load factor: "
            f"{stiffness_text(r.fraction_stiffness, r.kind, d)}"]
@@ -251,38 +449,45 @@ def brace_lines(study, cb, charts=()) -> list[str]:
                    f"{stiffness_text(cb.force.stiffness, 'lateral', d)} ({cb.force.basis}): {fs}")
     elif cb.force_note:
         out.append(f"  {cb.force_note}")
+    out += [f"  {t}" for t in brace_below_one(study, cb)]
     return out + _ending(charts)
 
 
-def sensitivity_lines(study, cs) -> list[str]:
+def sensitivity_lines(study, cs, case_load_factors: CaseLoadFactors | None = None) -> list[str]:
     """The summary of the spring sensitivities, ending with the restraint that matters most."""
     d = study.case.display
-    out = [_title(study),
+    out = [_title(study), *_warning_lines(case_load_factors),
            "sensitivity of the lowest load factor to each spring (from the mode shape; "
            "normalised = (k / load factor) d(load factor)/dk)",
            f"  {'restraint':>9} {'axis':>8} {'kind':>8} {'at':>8} {'stiffness':>22} {'normalised':>11} "
            f"{'FD check':>9}"]
+    marked = False
     for t, e in zip(cs.tables, cs.entries):
+        mark = BELOW_ONE_MARK if e.load_factor < 1.0 else ""
+        marked = marked or bool(mark)
         if e.rigid:
-            out.append(f"  {t:>9} {e.axis:>8} {e.kind:>8} {fmt(d.L(e.at)):>8} {'rigid':>22} {'(rigid)':>11}")
+            out.append(f"  {t:>9} {e.axis:>8} {e.kind:>8} {fmt(d.L(e.at)):>8} {'rigid':>22} {'(rigid)':>11}{mark}")
             continue
         chk = "-" if e.fd_relative_difference is None else f"{e.fd_relative_difference:.0e}"
         out.append(f"  {t:>9} {e.axis:>8} {e.kind:>8} {fmt(d.L(e.at)):>8} "
                    f"{stiffness_text(e.stiffness, e.kind, d):>22} "
-                   f"{e.normalised:11.4f} {chk:>9}{'  ' + e.note if e.note else ''}")
+                   f"{e.normalised:11.4f} {chk:>9}{'  ' + e.note if e.note else ''}{mark}")
+    if marked:
+        out.append("  < 1: the plane's lowest load factor is below 1: the column buckles under the case loads")
     rank = cs.ranking()
     if rank:
         t, e = rank[0]
+        lam = cs.load_factors[cs.governing_axis]
         out.append(f"which restraint matters most ({cs.governing_axis} plane governs, load factor "
-                   f"{fmt(cs.load_factors[cs.governing_axis])}): restraint {t} {e.kind} at {fmt(d.L(e.at))} "
+                   f"{fmt(lam)}{' < 1' if lam < 1.0 else ''}): restraint {t} {e.kind} at {fmt(d.L(e.at))} "
                    f"{d.length}: 1% stiffer raises the load factor by {e.normalised:.3f}%")
     return out + _ending()
 
 
-def bounds_lines(study, cb) -> list[str]:
+def bounds_lines(study, cb, case_load_factors: CaseLoadFactors | None = None) -> list[str]:
     """The summary of the fixity bounds."""
     d = study.case.display
-    out = [_title(study)]
+    out = [_title(study), *_warning_lines(case_load_factors)]
     for k, lo, hi in zip(cb.keys, cb.low, cb.high):
         kind = parse_key(k).kind
         out.append(f"  {k}: {stiffness_text(lo, kind, d)} to {stiffness_text(hi, kind, d)}")
@@ -290,13 +495,18 @@ def bounds_lines(study, cb) -> list[str]:
                "(all corners evaluated)")
     for p in cb.planes:
         out.append(f"  {p.axis or 'plane'}: load factor {fmt(p.load_factor_min)} to {fmt(p.load_factor_max)} "
-                   f"({p.corners.shape[0]} corners)")
+                   f"({p.corners.shape[0]} corners){BELOW_ONE_MARK if p.load_factor_min < 1.0 else ''}")
         for i, s in enumerate(study.case.segments):
             lo, hi = p.K_min[i], p.K_max[i]
             if not math.isnan(lo):
                 out.append(f"    segment {i + 1} {s.name}: K {lo:.3f} to "
                            f"{'inf' if math.isinf(hi) else f'{hi:.3f}'}")
     for a, v in cb.fixed.items():
-        out.append(f"  {a}: load factor {fmt(v)} (no uncertain spring acts in this plane)")
+        out.append(f"  {a}: load factor {fmt(v)} (no uncertain spring acts in this plane)"
+                   f"{BELOW_ONE_MARK if v < 1.0 else ''}")
     out.append(f"governing load factor from {fmt(cb.load_factor_min)} to {fmt(cb.load_factor_max)}")
+    below = bounds_below_one(study, cb)
+    if below:
+        out.append("  < 1: part of the box is below load factor 1: the column buckles under the case loads there")
+        out += [f"  {t}" for t in below]
     return out + _ending()

@@ -6,10 +6,11 @@ import math
 from typing import Any, Callable, Mapping
 
 from ..cautions import CAUTION
+from ..model.ideal_supports import ideal_case
 from ..results import CaseResults
 from ..units import DisplayUnits
 from ..util.checks import one_line
-from .run_warnings import run_warnings
+from .run_warnings import run_notices
 
 __all__ = ["summary_lines", "fmt"]
 
@@ -36,8 +37,8 @@ def summary_lines(res: CaseResults, display: DisplayUnits | None = None,
         out.append(f"case file {case.source}  (sha256 {case.sha256[:12]})")
     out.append(f"height {fmt(d.L(case.height))} {d.length}, {len(case.segments)} segment(s); "
                f"forces in {d.force}, lengths in {d.length}")
-    for w in run_warnings(res):
-        out.append(f"WARNING: {w['text']}")
+    for n in run_notices(res):
+        out.append(f"{'WARNING' if n.level == 'warning' else 'CHECK'} ({n.key}): {n.text}")
     for r in res.buckling:
         out.append("")
         lf = ", ".join(fmt(v) for v in r.load_factors)
@@ -45,16 +46,17 @@ def summary_lines(res: CaseResults, display: DisplayUnits | None = None,
         flag = "" if r.converged else "  NOT CONVERGED"
         out.append(f"  mesh {r.n_elements} elements, estimated error of the lowest load factor "
                    f"{r.discretisation_error:.1e} (tolerance {r.tolerance:.0e}){flag}")
-        for w in r.warnings:
-            out.append(f"  WARNING: {w}")
         out.append(f"  {'segment':<22} {'from-to [' + d.length + ']':>15} {'N [' + d.force + ']':>11} "
                    f"{'N_cr [' + d.force + ']':>12} {'K':>7} {'K L [' + d.length + ']':>10} {'energy':>7}")
         for s, info in zip(r.segments, case.segments):
             span = f"{fmt(d.L(s.bottom), 3)}-{fmt(d.L(s.top), 3)}"
             K = "-" if s.effective_length_factor is None else f"{s.effective_length_factor:.3f}"
             KL = "-" if s.effective_length is None else fmt(d.L(s.effective_length), 4)
-            flag = "" if s.meaningful else f"   ({s.note}: K not meaningful)" if s.effective_length_factor else \
-                f"   ({s.note})"
+            flag = "" if s.meaningful else f"   (not a design K: {s.note}; check against its own N_cr)" \
+                if s.effective_length_factor else f"   ({s.note})"
+            ideal = ideal_case(case.column(r.axis), s.index) if s.meaningful else None
+            if ideal is not None:
+                flag += f"   (ideal {ideal.name}: design K {ideal.recommended:.2f})"
             name = f"{s.index + 1} {info.name}"[:22]
             out.append(f"  {name:<22} {span:>15} {fmt(d.F(s.axial_force)):>11} "
                        f"{fmt(d.F(s.critical_axial_force)):>12} {K:>7} {KL:>10} {100 * s.energy_share:6.1f}%{flag}")

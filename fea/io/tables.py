@@ -12,8 +12,8 @@ from ..model import FREE, RIGID
 from ..units import parse
 from ..util.checks import as_bool, as_number, as_str, as_table, as_tables, check_keys
 
-__all__ = ["AXES", "positive", "spring", "axes", "Stations", "check_keys", "as_bool", "as_str", "as_number",
-           "as_table", "as_tables"]
+__all__ = ["AXES", "PIN_WORDS", "positive", "spring", "axes", "Stations", "check_keys", "as_bool", "as_str",
+           "as_number", "as_table", "as_tables"]
 
 AXES = ("major", "minor")
 
@@ -26,12 +26,33 @@ def positive(path: str, value: Any, dimension: str) -> float:
     return v
 
 
+#: Words for a pinned support: a pin holds the lateral movement and leaves the rotation free.
+PIN_WORDS = ("pinned", "pin", "hinged", "hinge")
+
+
+def _pin_word(path: str, value: Any, dimension: str) -> None:
+    """Refuse 'pinned' for one spring, saying which word of a spring it means there."""
+    if not (isinstance(value, str) and value.strip().lower() in PIN_WORDS):
+        return
+    if dimension == "rotational stiffness" or path.endswith(".rotation"):
+        raise CaseError(path, f"{value!r} is not a rotational stiffness: a pin leaves the rotation free, "
+                              "so write 'free' (or a stiffness such as '2.5 MN*m/rad')")
+    if dimension == "translational stiffness" or path.endswith(".lateral"):
+        raise CaseError(path, f"{value!r} is not a lateral stiffness: a pin holds the lateral movement, "
+                              "so write 'rigid' (or a stiffness such as '400 kN/m')")
+
+
 def spring(path: str, value: Any, dimension: str) -> float:
-    """A spring stiffness >= 0, or ``"rigid"``/``"fixed"`` (infinite), ``"free"``/``"none"`` (zero)."""
+    """A spring stiffness >= 0, or ``"rigid"``/``"fixed"`` (infinite), ``"free"``/``"none"`` (zero).
+
+    The words of a pinned support (:data:`PIN_WORDS`) are refused with the word to write instead:
+    ``'free'`` for a rotation, ``'rigid'`` for a lateral stiffness.
+    """
     if isinstance(value, str) and value.strip().lower() in ("rigid", "fixed"):
         return RIGID
     if isinstance(value, str) and value.strip().lower() in ("free", "none"):
         return FREE
+    _pin_word(path, value, dimension)
     v = parse(path, value, dimension)
     if v < 0:
         raise CaseError(path, f"{value!r} must be >= 0 (or 'free' / 'rigid')")

@@ -3,6 +3,12 @@
 Consumes :class:`fea.study.sweep.SweepResult` and :class:`fea.study.brace.BraceResult`;
 never recomputes physics.  Stiffnesses and lengths are drawn in the case's
 display units.  Save with :func:`fea.plot.save_figure`.
+
+Load factors below 1 (the column buckles under the case loads): the region
+below load factor 1 is hatched in grey under a black line at 1 labelled
+"buckles under the case loads", and the points below it are drawn as black
+crosses, so that the charts read in black and white.  When the case as given
+buckles, the figure's title says so.
 """
 
 from __future__ import annotations
@@ -13,6 +19,16 @@ import numpy as np
 from matplotlib.figure import Figure
 
 from ..cautions import CAUTION
+from .style import FS_TICK, INK
+
+#: Label of the line at load factor 1 and of the hatched region below it.
+BELOW_ONE_LABEL = "buckles under the case loads"
+#: Hatch of the region below load factor 1.
+BELOW_ONE_HATCH = "//"
+#: Grey of the hatch lines (light, so that the curves stay legible over it).
+BELOW_ONE_GREY = "0.62"
+#: Added to the figure title when the case as given buckles under its case loads.
+CASE_BELOW_ONE_TITLE = "WARNING: the case as given buckles under its case loads (lowest load factor below 1)"
 
 __all__ = ["plot_sweep", "plot_brace"]
 
@@ -40,14 +56,73 @@ def _caption(fig: Figure) -> None:
     fig.supxlabel(CAUTION, fontsize=6, color="0.35", x=0.01, ha="left", wrap=True)
 
 
-def plot_sweep(res, title: str = "", display=None) -> Figure:
-    """One parameter: load factor and K against the parameter.  Two: contour charts of K and load factor."""
+def _suptitle(fig: Figure, title: str, case_below_one: bool) -> None:
+    if case_below_one:
+        title = f"{title}\n{CASE_BELOW_ONE_TITLE}"
+    fig.suptitle(title, fontsize=11)
+
+
+def _below(y) -> np.ndarray:
+    """Mask of values below 1 (NaN, a point not analysed, is not)."""
+    a = np.asarray(y, dtype=float)
+    return np.less(a, 1.0, where=~np.isnan(a), out=np.zeros(a.shape, bool))
+
+
+def _below_one_band(ax, y_line: float = 1.0) -> None:
+    """Hatch the part of ``ax`` below ``y_line`` (where the load factor is below 1), with the line and its label.
+
+    Drawn only when the axes reach below the line; the axes' limits are kept.
+    """
+    lo, hi = ax.get_ylim()
+    if lo >= y_line:
+        return
+    ax.axhspan(lo, y_line, facecolor="none", edgecolor=BELOW_ONE_GREY, hatch=BELOW_ONE_HATCH, lw=0.0,
+               hatch_linewidth=0.6, zorder=0)
+    ax.axhline(y_line, color=INK, lw=1.0, zorder=1)
+    ax.annotate(BELOW_ONE_LABEL, xy=(0.99, y_line), xycoords=("axes fraction", "data"), ha="right", va="top",
+                fontsize=FS_TICK - 1, color=INK, xytext=(0, -2), textcoords="offset points",
+                bbox={"boxstyle": "square,pad=0.15", "fc": "white", "ec": "none"}, zorder=3)
+    ax.set_ylim(lo, hi)
+
+
+def _mark_below(ax, x, y, low, label: str | None = "load factor below 1") -> None:
+    """Black crosses on the points ``low`` of a curve."""
+    if np.any(low):
+        n = int(np.count_nonzero(low))
+        ax.plot(x[low], y[low], ls="none", marker="x", ms=5, mew=1.2, color=INK, zorder=4, label=label,
+                markevery=max(1, n // 12))  # a dense curve (a brace study's) keeps about a dozen crosses
+
+
+def _hatch_below_2d(ax, X, Y, lam) -> None:
+    """Hatch where a grid's load factor is below 1, with the contour at 1 drawn black and labelled."""
+    if not np.any(_below(lam)):
+        return
+    z = np.where(np.isnan(lam), np.inf, lam)
+    lo = float(np.min(z))
+    cs = ax.contourf(X, Y, z, levels=[min(lo, 0.0) - 1.0, 1.0], colors="none", hatches=[BELOW_ONE_HATCH])
+    cs.set_edgecolor(BELOW_ONE_GREY)
+    cs.set_linewidth(0.0)
+    if np.nanmax(lam) > 1.0:
+        ax.contour(X, Y, z, levels=[1.0], colors=INK, linewidths=1.6)
+    from matplotlib.patches import Patch
+
+    ax.legend(handles=[Patch(facecolor="white", edgecolor=INK, hatch=BELOW_ONE_HATCH,
+                             label=f"load factor < 1: {BELOW_ONE_LABEL}")],
+              loc="upper right", fontsize=FS_TICK - 1, framealpha=0.9)
+
+
+def plot_sweep(res, title: str = "", display=None, case_below_one: bool = False) -> Figure:
+    """One parameter: load factor and K against the parameter.  Two: contour charts of K and load factor.
+
+    Points below load factor 1 are marked and the region below 1 hatched; ``case_below_one`` (the case as
+    given buckles under its case loads) adds a warning to the title.
+    """
     fig = Figure(figsize=(10, 4.6), layout="constrained")
     if len(res.ranges) == 1:
         _sweep_1d(fig, res, display)
     else:
         _sweep_2d(fig, res, display)
-    fig.suptitle(title or "Sweep", fontsize=11)
+    _suptitle(fig, title or "Sweep", case_below_one)
     _caption(fig)
     return fig
 
@@ -75,11 +150,15 @@ def _sweep_1d(fig: Figure, res, display) -> None:
         for j, a in enumerate(res.axes):
             ax1.plot(x, res.load_factors[a][m], lw=0.9, ls=":", color=f"C{j + 1}", label=f"{a} axis")
     _ends_note(ax1, r, g, lambda v: f"{v:.4g}", "C0")
+    low = _below(g[m])
+    _mark_below(ax1, x, g[m], low)
+    _below_one_band(ax1)
     ax1.set_ylabel("lowest load factor [-]")
     Kg = res.K_governing()
     for j, s in enumerate(res.segments):
         ax2.plot(x, Kg[m, j], lw=1.4, color=f"C{j}", label=f"segment {s + 1}")
         _ends_note(ax2, r, Kg[:, j], lambda v: f"K = {v:.4f}", f"C{j}")
+        _mark_below(ax2, x, Kg[m, j], low, "load factor below 1" if j == 0 else None)
     ax2.set_ylabel("effective-length factor K (governing plane) [-]")
     for ax in (ax1, ax2):
         if r.scale == "log":
@@ -108,11 +187,13 @@ def _sweep_2d(fig: Figure, res, display) -> None:
         cs = ax1.contour(X, Y, Kg, levels=levels, colors="k", linewidths=0.6)
         ax1.clabel(cs, fmt="%.3f", fontsize=7)
         fig.colorbar(cf, ax=ax1, label="K [-]", shrink=0.9)
+    _hatch_below_2d(ax1, X, Y, lam)
     ax1.set_title(f"K of segment {res.segments[0] + 1} (governing plane)", fontsize=10)
     cf2 = ax2.contourf(X, Y, lam, levels=24, cmap="magma")
     cs2 = ax2.contour(X, Y, lam, levels=10, colors="w", linewidths=0.5)
     ax2.clabel(cs2, fmt="%.4g", fontsize=7)
     fig.colorbar(cf2, ax=ax2, label="lowest load factor [-]", shrink=0.9)
+    _hatch_below_2d(ax2, X, Y, lam)
     ax2.set_title("lowest load factor", fontsize=10)
     for ax in (ax1, ax2):
         if r1.scale == "log":
@@ -130,8 +211,12 @@ def _sweep_2d(fig: Figure, res, display) -> None:
                  fontsize=6, ha="right", va="bottom", color="0.35")
 
 
-def plot_brace(res, title: str = "", display=None) -> Figure:
-    """Load factor against brace stiffness, with the threshold, the target fraction and Winter's rule."""
+def plot_brace(res, title: str = "", display=None, case_below_one: bool = False) -> Figure:
+    """Load factor against brace stiffness, with the threshold, the target fraction and Winter's rule.
+
+    Where the load factor itself is below 1 (the ratio below ``1 / load factor with rigid braces``) the chart
+    is hatched and the points are marked; ``case_below_one`` adds a warning to the title.
+    """
     from ..study.paths import parse_key
 
     fig = Figure(figsize=(7.5, 4.8), layout="constrained")
@@ -140,6 +225,7 @@ def plot_brace(res, title: str = "", display=None) -> Figure:
     f, unit = _scale_of(key, display)
     ratio = res.curve_load_factor / res.load_factor_rigid
     ax.plot(res.curve_k / f, ratio, color="C0", lw=1.6, label="this column (braces varied together)")
+    _mark_below(ax, res.curve_k / f, ratio, _below(res.curve_load_factor))
     ax.axhline(1.0, color="0.4", lw=0.8, ls="--")
     ax.annotate(f"rigid braces: load factor {res.load_factor_rigid:.4g}", xy=(0.01, 1.0),
                 xycoords=("axes fraction", "data"), va="bottom", fontsize=7, color="0.3")
@@ -158,12 +244,16 @@ def plot_brace(res, title: str = "", display=None) -> Figure:
     ax.set_xlabel(f"brace stiffness [{unit}]")
     ax.set_ylabel("load factor / load factor with rigid braces [-]")
     lo = np.nanmin(ratio)
-    ax.set_ylim(max(0.0, lo - 0.05), 1.05)
+    one = 1.0 / res.load_factor_rigid if res.load_factor_rigid > 0 else math.inf  # load factor 1 on this axis
+    top = 1.05 if not math.isfinite(one) or one <= 1.0 else one + 0.05 * max(one - lo, 0.2)
+    ax.set_ylim(max(0.0, lo - 0.05), top)
+    if math.isfinite(one):
+        _below_one_band(ax, one)
     ax.grid(True, which="both", lw=0.3, alpha=0.6)
-    ax.legend(fontsize=7, loc="lower right")
+    ax.legend(fontsize=7, loc="center right" if ax.get_ylim()[0] < one else "lower right")
     stations = ", ".join(f"{s / (display.length_si if display else 1):.4g}" for s in res.stations)
     ax.set_title(f"{res.axis or 'in-plane'}: {res.kind} brace(s) at {stations} "
                  f"{display.length if display else 'm'}", fontsize=10)
-    fig.suptitle(title or "Brace stiffness", fontsize=11)
+    _suptitle(fig, title or "Brace stiffness", case_below_one)
     _caption(fig)
     return fig

@@ -73,9 +73,7 @@ def _prepare(res: CaseResults, json_dict: dict | None, figures: dict | None, war
 
     figs: dict[str, Any] = report_figures(res) if figures is None else dict(figures)
     figs = {k: (v if isinstance(v, str) else figure_svg(v, f"{k}-")) for k, v in figs.items()}
-    all_warnings = [*warnings]
-    for r in res.buckling:
-        all_warnings.extend(w for w in r.warnings if w not in all_warnings)
+    all_warnings = list(dict.fromkeys(warnings))  # raised by libraries during the run; the keyed ones come from res
     mode_figs = [(figs["modes"], _MODES_CAPTION)] if "modes" in figs else []
     parts = report_parts(res, res.case.display, figs.get("sketch"), mode_figs, all_warnings, optional,
                          figures=figures is None or bool(figs))

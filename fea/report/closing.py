@@ -17,7 +17,9 @@ def closing_part(warnings: list[str], res: CaseResults | None = None) -> Part:
     keyed = run_warnings(res) if res is not None else []
     if warnings or keyed:
         blocks.append(Bullets(tuple((T(w, f"run:warnings/{i}"),) for i, w in enumerate(warnings))
-                              + tuple(("WARNING: ", T(w["text"], f"json:warnings/{i}/text"))
+                              + tuple(("WARNING" if w["level"] == "warning" else "CHECK", " (",
+                                       T(w["key"], f"json:warnings/{i}/key"), "): ",
+                                       T(w["text"], f"json:warnings/{i}/text"))
                                       for i, w in enumerate(keyed))))
     else:
         blocks.append(Para(("None.",)))

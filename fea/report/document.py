@@ -192,10 +192,14 @@ class Bullets:
 
 @dataclass(frozen=True)
 class Note:
-    """A boxed note (``kind``: "caution" or "warning")."""
+    """A boxed note (``kind``: "caution", "warning" or "check"; see :data:`NOTE_LABELS`)."""
 
     parts: tuple
     kind: str = "caution"
+
+
+#: The label each kind of note opens with (a warning's level is its kind: see fea/notices.py).
+NOTE_LABELS = {"caution": "Caution.", "warning": "Warning.", "check": "Check."}
 
 
 @dataclass(frozen=True)

@@ -7,7 +7,7 @@ from typing import Any
 from ..cautions import CAUTION
 from ..results import CaseResults
 from ..version import version
-from .document import Para, Part, T, Table, q
+from .document import Note, Para, Part, T, Table, q
 
 __all__ = ["title_of", "identification_rows", "brief_blocks", "caution", "running_head"]
 
@@ -43,8 +43,9 @@ def brief_blocks(res: CaseResults, parts: list[Part]) -> list:
                                   "factors.",))]
     from ..io.run_warnings import run_warnings
 
-    for i, w in enumerate(run_warnings(res)):
-        brief.append(Para(("WARNING: ", T(w["text"], f"json:warnings/{i}/text"), ".")))
+    for i, w in enumerate(run_warnings(res)):  # boxed in the summary, by level (see fea/notices.py)
+        brief.append(Note(("(", T(w["key"], f"json:warnings/{i}/key"), ") ", T(w["text"], f"json:warnings/{i}/text"),
+                           "" if w["text"].endswith(("?", ".")) else "."), w["level"]))
     design: Any = res.extras.get("design")
     if design is not None and design.sway:
         brief.append(Para(("Design check (", T(design.standard, "json:design/standard"), "): verdict ",

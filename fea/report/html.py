@@ -4,7 +4,7 @@ from __future__ import annotations
 
 import html
 
-from .document import Bullets, Calc, Em, Figure, Heading, Note, Para, Part, Q, Sub, Sup, T, Table
+from .document import NOTE_LABELS, Bullets, Calc, Em, Figure, Heading, Note, Para, Part, Q, Sub, Sup, T, Table
 
 __all__ = ["render_html", "CSP"]
 
@@ -55,6 +55,7 @@ ul { margin: 3pt 0 8pt; padding-left: 16pt; }
 li { margin: 2pt 0; }
 .note { border: 0.8pt solid #111; border-left-width: 3pt; padding: 5pt 8pt; margin: 8pt 0; break-inside: avoid; }
 .note.warning { border-style: dashed; border-left-style: solid; }
+.note.check { border-style: dotted; border-left-style: solid; border-left-width: 1.5pt; }
 .note .label { font-weight: 700; }
 .brief { margin: 10pt 0 0; }
 .brief table { margin-bottom: 4pt; }
@@ -155,7 +156,7 @@ def _block(b) -> str:
     if isinstance(b, Bullets):
         return "<ul>" + "".join(f"<li>{inline(i)}</li>" for i in b.items) + "</ul>"
     if isinstance(b, Note):
-        label = "Caution." if b.kind == "caution" else "Warning."
+        label = NOTE_LABELS.get(b.kind, "Warning.")
         return f'<div class="note {_attr(b.kind)}"><span class="label">{label}</span> {inline(b.parts)}</div>'
     if isinstance(b, Figure):
         return f"<figure>{b.svg}<figcaption>{inline(b.caption)}</figcaption></figure>"

@@ -2,7 +2,7 @@
 
 from __future__ import annotations
 
-from .document import Bullets, Calc, Em, Figure, Heading, Note, Para, Part, Q, Sub, Sup, T, Table
+from .document import NOTE_LABELS, Bullets, Calc, Em, Figure, Heading, Note, Para, Part, Q, Sub, Sup, T, Table
 
 __all__ = ["render_markdown"]
 
@@ -45,7 +45,7 @@ def _block(b, figure_files: dict[str, str], counter: list[int], numbers: list[in
     if isinstance(b, Bullets):
         return "\n".join(f"- {inline(i)}" for i in b.items)
     if isinstance(b, Note):
-        label = "Caution." if b.kind == "caution" else "Warning."
+        label = NOTE_LABELS.get(b.kind, "Warning.")
         return f"> **{label}** {inline(b.parts)}"
     if isinstance(b, Figure):
         counter[0] += 1

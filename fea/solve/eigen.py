@@ -32,14 +32,21 @@ from ..model import Column
 from ..results import K_AXIAL_RATIO_MIN, K_ENERGY_SHARE_MIN, BucklingResult, SegmentBuckling
 from .solvable import banded_lower, bandwidth, positive_definite, rigid_body_mechanism, scaled_cholesky
 
-__all__ = ["buckling", "solve_assembled", "roundoff_floor", "DENSE_MAX_DOF", "DEFAULT_TOL", "MAX_LEVEL"]
+__all__ = ["buckling", "solve_assembled", "roundoff_floor", "short_interval", "DENSE_MAX_DOF", "DEFAULT_TOL",
+           "MAX_LEVEL", "MAX_ELEMENTS"]
 
 logger = logging.getLogger(__name__)
 
 #: Largest reduced system solved with dense LAPACK (measured crossover).
 DENSE_MAX_DOF = 400
 DEFAULT_TOL = 1e-6
-MAX_LEVEL = 8
+#: Deepest refinement level tried; refinement also stops before a mesh would exceed MAX_ELEMENTS elements.
+MAX_LEVEL = 11
+#: Largest mesh tried (elements): a shear-flexible column converging at order 2 may need a few thousand.
+MAX_ELEMENTS = 12000
+#: An interval between stations shorter than this fraction of the height is named as the cause when the
+#: answer is limited by round-off (its element is (H / l)^3 times stiffer than the column's elements).
+SHORT_INTERVAL = 1e-4
 
 
 def _diagnose_mechanism(column: Column, mesh: Mesh | None = None, asm: Assembled | None = None) -> str:
@@ -237,15 +244,53 @@ def _quotient_load_factors(mesh: Mesh, asm: Assembled, lam: np.ndarray, vec: np.
 EI_CONTRAST = 1e4
 
 
-def _roundoff_warning(column: Column, floor: float) -> str:
-    """The round-off warning, naming its likely cause: a stiffness contrast or very soft restraints."""
+def short_interval(column: Column) -> tuple[float, float] | None:
+    """The shortest interval between two stations when it is below ``SHORT_INTERVAL`` of the height."""
+    st = np.asarray(column.stations(), dtype=float)
+    if st.size < 2:
+        return None
+    gaps = np.diff(st)
+    i = int(np.argmin(gaps))
+    return (float(st[i]), float(st[i + 1])) if gaps[i] < SHORT_INTERVAL * column.height else None
+
+
+def _short_interval_text(column: Column, ab: tuple[float, float]) -> str:
+    a, b = ab
+    return (f"the stations at {a:.9g} m and {b:.9g} m are only {1e3 * (b - a):.3g} mm apart "
+            f"(1/{column.height / (b - a):.2g} of the height): an element this short is too stiff beside the others "
+            "for double precision; if they are meant to be one station, give both the same height")
+
+
+#: A round-off estimate below this is ordinary double-precision noise: when it still stops refinement, the
+#: requested tolerance, not the model, is the cause.
+ORDINARY_ROUNDOFF = 1e-8
+
+
+def _roundoff_warning(column: Column, floor: float, tol: float | None = None) -> str:
+    """The round-off warning, naming its likely cause: a tolerance finer than double precision gives, a very short
+    interval, a stiffness contrast or very soft restraints."""
     ei = segment_min_ei(column).tolist()
     head = f"accuracy limited by round-off (estimated {floor:.1e} relative): "
+    if tol is not None and floor < ORDINARY_ROUNDOFF:
+        return head + (f"the requested tolerance {tol:.0e} is finer than double precision resolves for this column "
+                       "(its round-off is ordinary); loosen [analysis] tolerance")
+    ab = short_interval(column)
+    if ab is not None:
+        return head + _short_interval_text(column, ab)
     if max(ei) > EI_CONTRAST * min(ei):
         return head + (f"the segments differ in stiffness (EI) by a factor of {max(ei) / min(ei):.1e} and the "
                        "buckling mode moves the stiff ones almost as rigid bodies")
     return head + ("the mode is held only by restraints that are very soft compared with the member "
                    "(a near-mechanism); check the restraints")
+
+
+def _slow_cause(mesh: Mesh, orders: list[float]) -> str:
+    """Why refinement did not reach the tolerance: a shear-flexible element (order about 2) or an unsettled rate."""
+    p = f"observed order of convergence {orders[-1]:.2g}" if orders else "no order of convergence observed"
+    if float(mesh.phi.max(initial=0.0)) > 0:
+        return (f"shear-flexible segments (S given) converge at order about 2, not 4 ({p}); loosen the tolerance "
+                "or check S")
+    return f"the error estimate had not settled ({p}); loosen the tolerance or simplify the model"
 
 
 #: Shear parameter ``12 EI / (S L_e^2)`` beyond which a numerically singular matrix is put down to S.
@@ -255,6 +300,9 @@ PHI_SINGULAR = 1e10
 def _singular_reason(column: Column, mesh: Mesh) -> tuple[str, str]:
     """Why a restrained (not a mechanism) column still has a numerically singular stiffness matrix."""
     phi = float(mesh.phi.max(initial=0.0))
+    ab = short_interval(column)
+    if ab is not None:
+        return ("stations", _short_interval_text(column, ab))
     if phi > PHI_SINGULAR:
         return ("S", f"the shear stiffness is too small compared with the bending stiffness for double precision "
                      f"(12 EI / (S L^2) reaches {phi:.1e} on the mesh): check S; such a member buckles in shear at "
@@ -333,8 +381,9 @@ def buckling(column: Column, n_modes: int = 3, tol: float = DEFAULT_TOL, method:
     orders: list[float] = []  # observed convergence orders from consecutive meshes
     roundoff_limited = False
     level = 0
+    capped = False
+    mesh = build_mesh(column, level)
     while True:
-        mesh = build_mesh(column, level)
         asm = assemble(mesh)
         if level == 0:
             _check_solvable(column, mesh, asm)
@@ -374,18 +423,28 @@ def buckling(column: Column, n_modes: int = 3, tol: float = DEFAULT_TOL, method:
                 nxt = MAX_LEVEL
             else:
                 break
-        level = nxt
+        nxt_mesh = build_mesh(column, nxt)
+        while nxt > level + 1 and nxt_mesh.n_el > MAX_ELEMENTS:
+            nxt -= 1
+            nxt_mesh = build_mesh(column, nxt)
+        if nxt_mesh.n_el > MAX_ELEMENTS:
+            capped = True
+            break
+        level, mesh = nxt, nxt_mesh
     history = [solved[k] for k in sorted(solved)]
     converged = est <= tol
     warns: tuple[str, ...] = ()
     if roundoff_limited or floor > 0.1 * tol:
-        warns = (_roundoff_warning(column, floor),)
+        warns = (_roundoff_warning(column, floor, tol),)
     if converged:
         msg = f"lowest load factor converged: estimated relative discretisation error {est:.1e} <= {tol:.0e}"
     elif roundoff_limited:
-        msg = f"lowest load factor limited by round-off: estimated relative error {est:.1e} > {tol:.0e}"
+        msg = (f"lowest load factor limited by round-off: estimated relative error {est:.1e} > {tol:.0e}; cause: "
+               + _roundoff_warning(column, floor, tol).split(": ", 1)[1])
     else:
-        msg = f"mesh refinement stopped at level {MAX_LEVEL}: estimated relative error {est:.1e} > {tol:.0e}"
+        why = "largest mesh allowed" if capped else "deepest level"
+        msg = (f"mesh refinement stopped at {mesh.n_el} elements ({why}): estimated relative error {est:.1e} > "
+               f"{tol:.0e}; cause: {_slow_cause(mesh, orders)}")
     res = _package(column, mesh, asm, lam, vec, solver, np.array(history), est, tol, converged, msg, axis)
     return replace(res, roundoff_error=floor, warnings=warns)
 

@@ -21,7 +21,12 @@ if TYPE_CHECKING:
     from ..model.case import Case, SegmentInfo
     from .imperfect import ImperfectResult
 
-__all__ = ["declares_imperfect", "imperfection_spec", "plane_inputs", "run_imperfect", "as_case_error"]
+__all__ = ["FIBRE_MODEL_NOTE", "declares_imperfect",
+           "imperfection_spec", "plane_inputs", "run_imperfect", "as_case_error"]
+
+#: How the note describing the fibre model starts: a description of the model, not a warning.
+FIBRE_MODEL_NOTE = "fibre model"
+
 
 def declares_imperfect(case: Case) -> bool:
     """True when the case has an ``[imperfection]`` or a ``[lateral]`` table."""
@@ -120,7 +125,7 @@ def plane_inputs(case: Case, axis: str, spec: ImperfectionSpec | None = None):
     if analysis in ("nonlinear", "both"):
         rs = (f"residual stress {spec.residual_stress:g} fy at the flange tips of I sections (linear flange "
               "pattern)" if spec.residual_stress else "no residual stress")
-        notes.append(f"fibre model: {spec.fibres} strips, {rs}, hardening E_t/E = {spec.hardening:g}")
+        notes.append(f"{FIBRE_MODEL_NOTE}: {spec.fibres} strips, {rs}, hardening E_t/E = {spec.hardening:g}")
     has_W = all(s.W is not None for s in sections)
     return case.column(axis), spec.imperfection, tuple(sections) if (has_W or analysis != "second-order") else None, \
         spec.loads.for_axis(axis), analysis, notes

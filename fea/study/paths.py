@@ -88,6 +88,10 @@ class KeyPath:
         """A value for this key in SI: a quantity string, or 'free' / 'rigid' for a spring."""
         if self.is_spring and isinstance(value, str) and value.strip().lower() in ("free", "rigid"):
             return 0.0 if value.strip().lower() == "free" else math.inf
+        if self.is_spring and isinstance(value, str) and value.strip().lower() in ("pinned", "pin", "hinged", "hinge"):
+            word, why = ("free", "leaves the rotation free") if self.leaf == "rotation" else \
+                ("rigid", "holds the lateral movement")
+            raise CaseError(where, f"{value!r} is not a stiffness: a pin {why}, so write {word!r}")
         return parse(where, value, self.dimension)
 
     def get(self, doc: Mapping) -> object:

@@ -19,6 +19,7 @@ from typing import Callable, Mapping
 
 from ..errors import CaseError, FeaError
 from ..model.case import Case
+from ..model.ideal_supports import is_nominal, nominal_rotation_at
 from .paths import KeyPath, parse_key, with_values
 
 __all__ = ["StudyCase", "SpringTarget", "Rebuild", "rebuilt"]
@@ -83,7 +84,11 @@ class StudyCase:
             r = self.case.column(ref.axis).restraints[ref.index]
             offset = 0.0
             if key.kind == "rotation" and math.isfinite(r.rotation):
-                own = key.parse_value(tables[number - 1].get("rotation", "free"), key.text)
+                raw = tables[number - 1].get("rotation", "free")
+                if is_nominal(raw):  # "nominally-fixed" / "nominally-pinned": the stiffness its rule gives
+                    own = nominal_rotation_at(raw, self.case.column(ref.axis).segments, r.at)
+                else:
+                    own = key.parse_value(raw, key.text)
                 offset = r.rotation - own if math.isfinite(own) else 0.0
             out.append(SpringTarget(axis=ref.axis, restraint=ref.index, kind=key.kind, offset=offset))
         return tuple(out)
