@@ -304,3 +304,51 @@ def test_plausible_steel_column_never_gets_a_material_notice(E, fy, L, name):
     text = pinned(material=name, E=f"{E / 1e9!r} GPa", fy=f'fy = "{fy / 1e6!r} MPa"', L=f"{L!r} m")
     notices = case_notices(parse_case(text))
     assert "modulus-implausible" not in keys(notices) and "yield-strength-implausible" not in keys(notices)
+
+
+# -- the selected standard's own slenderness limit ---------------------------------------------------------
+
+_STRUT = """
+title = "slender strut (invented)"
+[units]
+length = "m"
+force = "kN"
+[material]
+name = "S275 steel"
+E = "210 GPa"
+fy = "275 MPa"
+[[segment]]
+name = "strut"
+length = "{L}"
+I_major = "2.0e6 mm^4"
+I_minor = "2.0e6 mm^4"
+A = "2000 mm^2"
+[[restraint]]
+at = "base"
+lateral = "rigid"
+[[restraint]]
+at = "top"
+lateral = "rigid"
+[[load]]
+at = "top"
+axial = "5 kN"
+[design]
+{design}
+"""
+
+
+@pytest.mark.parametrize("design, flagged, source", [
+    # BS 5950-1:2000 4.7.3.2: 180 for members resisting loads other than wind (from memory)
+    ('standard = "BS 5950-1"\ncurve = "b"', True, "BS 5950-1:2000 4.7.3.2"),
+    # EN 1993-1-1 sets no limit of its own: common practice's 200 applies, and 190 is below it
+    ('standard = "EN 1993-1-1"\ncurve = "b"', False, ""),
+])
+def test_standard_own_slenderness_limit(design, flagged, source):
+    # r = sqrt(2.0e6 / 2000) = 31.6 mm; pinned-pinned K = 1: L = 6.0 m gives K L / r = 190
+    res = run_case(parse_case(_STRUT.format(L="6.0 m", design=design)))
+    from fea.io.run_warnings import run_notices
+
+    found = [n for n in run_notices(res) if n.key == "slenderness-over-limit"]
+    assert bool(found) == flagged
+    if flagged:
+        assert source in found[0].text and "K L / r = 190" in found[0].text and "above 180" in found[0].text

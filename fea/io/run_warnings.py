@@ -53,6 +53,16 @@ def _plane_notices(res: CaseResults, r: BucklingResult) -> list[Notice]:
     return out
 
 
+def _standard_limit(design: Any) -> tuple[float, str] | None:
+    """The selected standard's own K L / r limit when it sets one below common practice's 200."""
+    from ..design.standards import STANDARDS
+    from ..model.plausibility import SLENDERNESS_LIMIT
+
+    std = STANDARDS.get(getattr(design, "standard", None) or "")
+    lim = getattr(std, "slenderness_limit", None)
+    return lim if lim is not None and lim[0] < SLENDERNESS_LIMIT else None
+
+
 def run_notices(res: CaseResults) -> list[Notice]:
     """Every warning of the run: those of level "warning" first, then the checks; within each level the input,
     each plane, the design, the imperfect column."""
@@ -61,8 +71,9 @@ def run_notices(res: CaseResults) -> list[Notice]:
     out: list[Notice] = list(case_notices(res.case))
     for r in res.buckling:
         out.extend(_plane_notices(res, r))
-    out.extend(result_notices(res))
     design: Any = res.extras.get("design")
+    own = _standard_limit(design)
+    out.extend(result_notices(res, *own) if own else result_notices(res))
     for w in getattr(design, "sway", ()):
         if w.alpha_cr < 1.0:
             out.append(Notice(BUCKLES_DESIGN, f"{w.axis} axis: alpha_cr {w.alpha_cr:.4g} is below 1: the column "

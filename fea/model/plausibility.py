@@ -416,7 +416,12 @@ def _radius(I: float, A: float) -> float:
     return math.sqrt(I / A)
 
 
-def slenderness_notices(res: CaseResults, limit: float = SLENDERNESS_LIMIT) -> list[Notice]:
+#: What the default limit is.
+SLENDERNESS_SOURCE = "the usual limit for members in compression (AISC 360 E2 user note, from memory; common practice)"
+
+
+def slenderness_notices(res: CaseResults, limit: float = SLENDERNESS_LIMIT,
+                        source: str = SLENDERNESS_SOURCE) -> list[Notice]:
     """K L / r above ``limit`` for each segment in compression whose K is meaningful and whose area is known.
 
     r = sqrt(I / A) of the plane, with the I the K was computed with (the larger end value of a taper).  A plane
@@ -444,8 +449,7 @@ def slenderness_notices(res: CaseResults, limit: float = SLENDERNESS_LIMIT) -> l
             if ratio > limit:
                 where = f", {plane.axis} plane" if plane.axis and plane.axis != "in-plane" else ""
                 text = (f"{segs.label(sb.index)}{where}: K L / r = {_num(ratio, 3)} (K = {_num(K, 3)}, "
-                        f"L = {_height(sb.length)}, r = {_num(r * 1e3, 3)} mm) is above {_num(limit)}, the usual "
-                        f"limit for members in compression")
+                        f"L = {_height(sb.length)}, r = {_num(r * 1e3, 3)} mm) is above {_num(limit)}, {source}")
                 out.append(Notice("slenderness-over-limit", text, plane.axis))
     return out
 
@@ -465,6 +469,7 @@ def load_factor_notices(res: CaseResults) -> list[Notice]:
     return [Notice("load-factor-very-high", text, gov.axis)]
 
 
-def result_notices(res: CaseResults, slenderness_limit: float = SLENDERNESS_LIMIT) -> list[Notice]:
+def result_notices(res: CaseResults, slenderness_limit: float = SLENDERNESS_LIMIT,
+                   slenderness_source: str = SLENDERNESS_SOURCE) -> list[Notice]:
     """Plausibility of the results: K L / r of the compression segments, a very high lowest load factor."""
-    return slenderness_notices(res, slenderness_limit) + load_factor_notices(res)
+    return slenderness_notices(res, slenderness_limit, slenderness_source) + load_factor_notices(res)

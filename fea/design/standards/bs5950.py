@@ -175,4 +175,6 @@ BS5950 = Standard(
     steps=STEPS,
     compression=_compression,
     tension=_tension,
+    # members resisting loads other than wind: 180 (from memory; check the clause against the document)
+    slenderness_limit=(180.0, "BS 5950-1:2000 4.7.3.2 for members resisting loads other than wind, from memory"),
 )

@@ -137,6 +137,8 @@ class Standard:
     compression : ``(params, axis, member, N_cr, N_Ed) -> dict`` of one compression check
     tension : ``(params, member, A_net, base_details) -> dict`` of one tension check
     needs_fy : whether a compression check needs the member's yield strength
+    slenderness_limit : the standard's own limit on K L / r of a compression member and its clause, or None
+        when it sets none (then common practice, 200, applies: see fea.model.plausibility)
     """
 
     name: str
@@ -148,6 +150,7 @@ class Standard:
     compression: Callable[..., dict]
     tension: Callable[..., dict]
     needs_fy: bool = True
+    slenderness_limit: tuple[float, str] | None = None
 
     def __post_init__(self) -> None:
         for name in ("parameters", "constants", "steps"):
