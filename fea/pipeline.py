@@ -17,7 +17,7 @@ write its parser, its engine and its outputs in their layers and add one
 
 from __future__ import annotations
 
-from dataclasses import dataclass
+from dataclasses import dataclass, replace
 from typing import Any, Callable, Mapping
 
 from .io.case import TableParser
@@ -26,17 +26,19 @@ from .io.case import parse_case as _parse_case
 from .io.design_input import parse_design
 from .io.design_output import design_json, design_summary
 from .io.export import result_dict
+from .io.fixity_output import fixity_json, fixity_summary
 from .io.imperfect_input import parse_imperfection, parse_lateral
 from .io.imperfect_output import imperfect_json, imperfect_summary
+from .io.record_input import parse_record
 from .io.study_input import parse_study
 from .io.summary import summary_lines
 from .model.case import Case
-from .report.parts import DESIGN_PART, IMPERFECT_PART, OptionalPart
+from .report.parts import DESIGN_PART, FIXITY_PART, IMPERFECT_PART, OptionalPart
 from .results import BucklingResult, CaseResults
 from .solve.eigen import buckling
 
 __all__ = ["Analysis", "ANALYSES", "CASE_TABLES", "REPORT_PARTS", "load_case", "parse_case", "run_case", "result_json",
-           "summary"]
+           "summary", "identical_planes"]
 
 
 @dataclass(frozen=True)
@@ -50,6 +52,12 @@ class Analysis:
     summary: Callable[[Any, Any], list[str]]
     figures: Callable[[Any, Any, Case], dict] | None = None
     report: OptionalPart | None = None
+
+
+def _run_fixity(case: Case, buckling_results: tuple[BucklingResult, ...]):
+    from .solve.fixity import case_fixity
+
+    return case_fixity(case.planes, buckling_results) or None
 
 
 def _run_imperfect(case: Case, buckling_results: tuple[BucklingResult, ...]):
@@ -89,6 +97,7 @@ def _design_figures(result, display, case: Case) -> dict:
 
 #: The analyses ``check`` and ``report`` run after the elastic buckling of every plane, in this order.
 ANALYSES: tuple[Analysis, ...] = (
+    Analysis("fixity", {}, _run_fixity, fixity_json, fixity_summary, None, FIXITY_PART),
     Analysis("imperfect", {"imperfection": parse_imperfection, "lateral": parse_lateral}, _run_imperfect,
              imperfect_json, imperfect_summary, _imperfect_figures, IMPERFECT_PART),
     Analysis("design", {"design": parse_design}, _run_design, design_json, design_summary, _design_figures,
@@ -98,10 +107,12 @@ ANALYSES: tuple[Analysis, ...] = (
 #: The report part of every analysis, in report order (passed to :func:`fea.report.build_report`).
 REPORT_PARTS: Mapping[str, OptionalPart] = {a.name: a.report for a in ANALYSES if a.report is not None}
 
-#: Every optional table a case file may hold: the analyses' and the restraint studies' ``[study]``.
+#: Every optional table a case file may hold: the analyses', the restraint studies' ``[study]`` and the
+#: report's identification fields ``[record]``.
 CASE_TABLES: Mapping[str, TableParser] = {
     **{name: parser for a in ANALYSES for name, parser in a.tables.items()},
     "study": parse_study,
+    "record": parse_record,
 }
 
 
@@ -118,7 +129,15 @@ def parse_case(data: bytes | str, source: str = "") -> Case:
 def run_case(case: Case, n_modes: int | None = None, skip: tuple[str, ...] = ()) -> CaseResults:
     """Buckling of every plane of ``case``, then every analysis of :data:`ANALYSES` it declares."""
     modes = n_modes or case.n_modes
-    results = tuple(buckling(col, n_modes=modes, tol=case.tolerance, axis=axis) for axis, col in case.planes)
+    same = identical_planes(case)
+    results: tuple[BucklingResult, ...]
+    if same:
+        # equal properties about both axes and the same supports and loads (a tube, a round, a square): one solve,
+        # reused for the second plane, so both planes show the same numbers and the first plane governs
+        first = buckling(case.planes[0][1], n_modes=modes, tol=case.tolerance, axis=same[0])
+        results = (first, replace(first, axis=same[1], message=f"{first.message}; {_identical_note(same)}"))
+    else:
+        results = tuple(buckling(col, n_modes=modes, tol=case.tolerance, axis=axis) for axis, col in case.planes)
     gov = min(results, key=lambda r: r.load_factor).axis
     extras = {}
     for analysis in ANALYSES:
@@ -138,11 +157,40 @@ def analysis(name: str) -> Analysis:
     raise KeyError(name)
 
 
+def identical_planes(case: Case) -> tuple[str, str] | None:
+    """The two planes' names when their columns are the same (equal properties about both axes, the same
+    restraints, loads and foundations): they are then solved once; None otherwise."""
+    if len(case.planes) != 2 or case.planes[0][1] != case.planes[1][1]:
+        return None
+    return case.planes[0][0], case.planes[1][0]
+
+
+def _identical_note(same: tuple[str, str]) -> str:
+    return f"both planes identical: analysed once ({same[1]} axis identical to {same[0]}: solved once)"
+
+
 def result_json(res: CaseResults) -> dict:
-    """The JSON result of a run (SI): the buckling of every plane and each analysis's part."""
-    return result_dict(res, {a.name: a.to_json for a in ANALYSES})
+    """The JSON result of a run (SI): the buckling of every plane and each analysis's part.
+
+    ``identical_planes`` (only when the two planes are the same column): the note that they were solved once.
+    """
+    out = result_dict(res, {a.name: a.to_json for a in ANALYSES})
+    same = identical_planes(res.case)
+    if same is None:
+        return out
+    keys = list(out)
+    at = keys.index("governing_load_factor") + 1 if "governing_load_factor" in keys else len(keys)
+    items = list(out.items())
+    return dict(items[:at] + [("identical_planes", {"axes": list(same), "note": _identical_note(same)})] + items[at:])
 
 
 def summary(res: CaseResults, display=None) -> list[str]:
-    """The lines of the terminal summary of a run, in ``display`` units (default: the case's)."""
-    return summary_lines(res, display, {a.name: a.summary for a in ANALYSES})
+    """The lines of the terminal summary of a run, in ``display`` units (default: the case's); a note after the
+    governing plane when both planes are the same column (solved once)."""
+    lines = summary_lines(res, display, {a.name: a.summary for a in ANALYSES})
+    same = identical_planes(res.case)
+    if same is None:
+        return lines
+    at = next((i + 1 for i, line in enumerate(lines) if line.startswith("Governing:")), len(lines))
+    return lines[:at] + [f"Note: {_identical_note(same)}; the {same[1]} axis repeats the {same[0]} axis's "
+                         "results"] + lines[at:]

@@ -90,7 +90,8 @@ class BucklingResult:
         permanent loads present they multiply the variable loads only
     heights : (n_nodes,) node heights of the final mesh [m]
     modes : (n_modes, n_nodes) lateral displacement of each mode, scaled so
-        that the largest magnitude is 1 and that value is positive [-]
+        that the largest magnitude is 1 and that value is positive (of two
+        extremes equal to round-off, the lower one) [-]
     rotations : (n_modes, n_nodes) section rotation of each mode on the same
         scale as ``modes`` [1/m: rad per metre of the largest displacement]
     segments : tuple of SegmentBuckling for the lowest mode, base upward
@@ -106,6 +107,9 @@ class BucklingResult:
     warnings : plain-language warnings (e.g. accuracy limited by round-off)
     roundoff_error : estimated relative round-off error of the lowest load
         factor on the final mesh (large only for near-mechanisms)
+    mode_errors : (n_modes,) estimated relative discretisation error of each
+        reported load factor (the first is ``discretisation_error``); the mesh
+        is refined until every one is within the tolerance
     """
 
     load_factors: np.ndarray
@@ -124,6 +128,7 @@ class BucklingResult:
     axis: str = ""
     warnings: tuple[str, ...] = field(default_factory=tuple)
     roundoff_error: float = 0.0
+    mode_errors: np.ndarray = field(default_factory=lambda: np.zeros(0))
 
     @property
     def load_factor(self) -> float:

@@ -119,3 +119,62 @@ def test_stations_too_close_for_double_precision_name_the_real_cause(tmp_path, c
     err = capsys.readouterr().err
     assert "1.99999 m and 2 m" in err and "0.01 mm apart" in err
     assert "near-mechanism" not in err and "Traceback" not in err
+
+
+# -- every reported mode converged (issue 13 item 8) --------------------------------------------------------
+
+UNIFORM = """
+title = "uniform strut (invented)"
+[units]
+length = "m"
+force = "kN"
+[material]
+E = "200 GPa"
+[analysis]
+modes = 5
+[[segment]]
+length = "7 m"
+I = "31.0e6 mm^4"
+[[restraint]]
+at = "base"
+lateral = "rigid"
+{base}
+[[restraint]]
+at = "top"
+{top}
+[[load]]
+at = "top"
+axial = "250 kN"
+"""
+
+
+@pytest.mark.parametrize("base, top, factor", [
+    # pin-ended: P_n = n^2 pi^2 E I / L^2 (Timoshenko & Gere, Theory of Elastic Stability, 2nd ed., section 2.1)
+    ("", 'lateral = "rigid"', lambda n: n * n),
+    # cantilever: P_n = (2n - 1)^2 pi^2 E I / (4 L^2) (Timoshenko & Gere, section 2.1)
+    ('rotation = "rigid"', 'lateral = "free"\nrotation = "free"', lambda n: (2 * n - 1) ** 2 / 4),
+])
+def test_every_reported_mode_meets_the_tolerance_against_exact(base, top, factor):
+    text = UNIFORM.format(base=base, top=top).replace('[[restraint]]\nat = "top"\nlateral = "free"\nrotation = "free"',
+                                                      "")
+    r = run_case(parse_case(text)).buckling[0]
+    euler = math.pi ** 2 * 200e9 * 31.0e-6 / 7.0 ** 2 / 250e3
+    assert len(r.load_factors) == 5 and len(r.mode_errors) == 5
+    for n, (lam, est) in enumerate(zip(r.load_factors, r.mode_errors), start=1):
+        exact = factor(n) * euler
+        assert est <= 1e-6, n
+        assert lam == pytest.approx(exact, rel=1e-6), n
+
+
+def test_every_demo_case_reports_converged_load_factors():
+    """Each reported load factor of each shipped case has an estimated error within its tolerance."""
+    from pathlib import Path
+
+    from fea.pipeline import ANALYSES, load_case
+
+    skip = tuple(a.name for a in ANALYSES)
+    for path in sorted((Path(__file__).resolve().parents[1] / "cases").glob("*.toml")):
+        res = run_case(load_case(str(path)), skip=skip)
+        for r in res.buckling:
+            assert r.converged and len(r.mode_errors) == len(r.load_factors), (path.name, r.axis)
+            assert all(e <= r.tolerance for e in r.mode_errors), (path.name, r.axis, list(r.mode_errors))

@@ -67,7 +67,7 @@ EIGENVECTOR_KEYS = {"energy_share", "shapes", "scale", "I_required_m4"}
 
 def _scale_of_key(key: str, value) -> float:
     """The absolute scale of a key's tolerance (0: relative only)."""
-    if key.endswith("_error"):
+    if key.endswith(("_error", "_errors")):  # error estimates: differences of nearly equal numbers
         return 1.0
     if key in EIGENVECTOR_KEYS:
         big = max((abs(v) for v in _numbers(value)), default=abs(value) if isinstance(value, (int, float)) else 0.0)

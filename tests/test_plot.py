@@ -98,7 +98,7 @@ def test_load_labels_use_the_display_units(stepped):
     assert "300 kN" in joined
     assert "80 kN perm." in joined
     assert "200 kN/m" in joined          # lateral spring
-    assert "4000 kNm/rad" in joined      # rotational spring
+    assert "4 MN*m/rad" in joined      # rotational spring
 
 
 def test_format_load_factor():
@@ -189,7 +189,7 @@ def test_pole_with_foundation_and_distributed_load(tmp_path):
     res = buckling(col, n_modes=2)
     fig = plot_modes(col, res, n_modes=2)
     texts = "\n".join(t.get_text() for ax in fig.axes for t in ax.texts)
-    assert "foundation" in texts and "kN/m²" in texts and "q = 1.5 kN/m perm." in texts
+    assert "foundation" in texts and "MN/m²" in texts and "q = 1.5 kN/m perm." in texts
     assert save_figure(fig, tmp_path / "pole.png").stat().st_size > 0
 
 

@@ -5,6 +5,7 @@ from __future__ import annotations
 import argparse
 import json
 import logging
+import sys
 import time
 from pathlib import Path
 
@@ -57,11 +58,16 @@ def run(args: argparse.Namespace) -> int:
     text = json.dumps(data, indent=2, allow_nan=False) if args.json else None
     if args.json and args.json != "-":
         plan.add(args.json, text + "\n", "--json")
+    written = []
     for f in args.plot:
         p = Path(f)
         for name, fig in figures.items():
-            plan.add(p if name == "" else p.with_name(f"{p.stem}-{name}{p.suffix}"), figure_writer(fig), "--plot")
+            target = p if name == "" else p.with_name(f"{p.stem}-{name}{p.suffix}")
+            plan.add(target, figure_writer(fig), "--plot")
+            written.append(str(target))
     plan.write()
+    if written:  # on standard error, so that standard output stays the summary or pure JSON
+        print("wrote " + ", ".join(written), file=sys.stderr)
     if args.json == "-":
         print(text)
     else:

@@ -41,8 +41,34 @@ def add_arguments(p: argparse.ArgumentParser) -> None:
     p.add_argument("--only-buckling", action="store_true",
                    help="leave out the optional analyses the case declares (imperfection, design)")
     p.add_argument("--date", type=_date, metavar="YYYY-MM-DD",
-                   help="date printed on the record (default: today)")
+                   help="date printed on the record (default: the case's [record] date, else today)")
+    fields = p.add_argument_group("identification of the record",
+                                  "printed at the head of the record; each overrides the same field of the "
+                                  "case's [record] table")
+    for option, dest, what in _RECORD_OPTIONS:
+        fields.add_argument(option, dest=dest, type=_field(option), metavar="TEXT", help=what)
+    p.add_argument("--no-case-file", action="store_true",
+                   help="leave out the appendix that prints the case file verbatim")
     add_no_clobber(p)
+
+
+#: Options of the identification fields: (option, field of [record], help).
+_RECORD_OPTIONS = (("--project", "project", "project name"), ("--job", "job", "job number"),
+                   ("--prepared-by", "prepared_by", "who prepared the calculation"),
+                   ("--checked-by", "checked_by", "who checked it"), ("--revision", "revision", "revision"))
+
+
+def _field(option: str):
+    def check(text: str) -> str:
+        from ..errors import CaseError
+        from ..io.record_input import record_text
+
+        try:
+            return record_text(text, option)
+        except CaseError as exc:
+            raise argparse.ArgumentTypeError(f"{exc.message}, got {text[:40]!r}") from None
+
+    return check
 
 
 def _display(text: str):
@@ -64,10 +90,12 @@ def _check_target(plan: OutputPlan, path: Path, suffix: str, option: str) -> Non
 
 
 def run(args: argparse.Namespace) -> int:
-    from ..pipeline import ANALYSES, REPORT_PARTS, load_case, run_case
+    from ..io.limits import MAX_CASE_BYTES, read_limited
+    from ..pipeline import ANALYSES, REPORT_PARTS, parse_case, run_case
     from ..report import build_markdown, build_report, report_figures
 
-    case = load_case(args.case)
+    raw = read_limited(Path(args.case), MAX_CASE_BYTES, "", "case file")
+    case = parse_case(raw, source=args.case)  # the text printed in the appendix is the text analysed
     out = Path(args.output) if args.output else Path(Path(args.case).stem + ".html")
     plan = OutputPlan([args.case], no_clobber=args.no_clobber)
     _check_target(plan, out, ".html", "-o")
@@ -84,14 +112,15 @@ def run(args: argparse.Namespace) -> int:
         res = run_case(case, n_modes=args.modes, skip=skip)
     raised = list(dict.fromkeys(f"{w.category.__name__}: {w.message}" for w in caught))
     figures = report_figures(res)
-    date = args.date or datetime.date.today().isoformat()
-    html_text = build_report(res, figures=figures, parts=REPORT_PARTS, warnings=raised, date=date)
+    record = {dest: getattr(args, dest) for _, dest, _ in _RECORD_OPTIONS if getattr(args, dest)}
+    text = None if args.no_case_file else raw.decode("utf-8").removeprefix("\ufeff")
+    common = dict(parts=REPORT_PARTS, warnings=raised, date=args.date, record=record, case_text=text)
+    html_text = build_report(res, figures=figures, **common)
     if md is not None:
         links = {name: f"{md.stem}-{name}.svg" for name in figures}
         for name, svg in figures.items():
             plan.add(md.with_name(links[name]), _standalone_svg(svg), "--markdown")
-        plan.add(md, build_markdown(res, figures=figures, parts=REPORT_PARTS, warnings=raised, date=date,
-                                    figure_files=links), "--markdown")
+        plan.add(md, build_markdown(res, figures=figures, figure_files=links, **common), "--markdown")
     plan.add(out, html_text, "-o")
     plan.write()
     print(f"wrote {out}" + (f" and {md}" if md is not None else ""))

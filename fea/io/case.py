@@ -25,7 +25,8 @@ from typing import Any, Callable, Mapping
 
 from ..errors import CaseError, ModelError
 from ..model import Column, DistributedLoad, Foundation, LeaningLoad, PointLoad, Restraint, Segment
-from ..model.case import Case, SegmentInfo, TableRef
+from ..model.case import Case, LoadInfo, SegmentInfo, TableRef
+from ..model.column import member_force_loads
 from ..model.ideal_supports import NOMINAL_FIXITIES, is_nominal, nominal_rotation_at
 from ..units import DisplayUnits, parse
 from ..util.checks import as_text
@@ -57,7 +58,10 @@ LOAD_KEYS = {"at", "axial", "permanent", "eccentricity", "eccentricity_major", "
 #: [[load]] keys that imply a second-order analysis of the loaded column.
 LOAD_ACTION_KEYS = {"eccentricity", "eccentricity_major", "eccentricity_minor", "lateral"}
 SEGMENT_KEYS = {"length", "E", "fy", "I", "I_major", "I_minor", "I_top", "I_major_top", "I_minor_top",
-                "taper_exponent", "A", "S", "S_major", "S_minor", "name", "section"}
+                "taper_exponent", "A", "S", "S_major", "S_minor", "name", "section", "axial_force",
+                "axial_force_permanent"}
+#: [[segment]] keys that give the member's axial force per segment instead of [[load]] tables.
+MEMBER_FORCE_KEYS = ("axial_force", "axial_force_permanent")
 
 _NO_TABLES: Mapping[str, TableParser] = MappingProxyType({})
 
@@ -105,7 +109,8 @@ def parse_document(doc: dict, source: str = "", sha256: str = "",
                    tables: Mapping[str, TableParser] = _NO_TABLES) -> Case:
     """A parsed TOML document (plain data) -> :class:`Case`; studies rebuild changed cases through this."""
     if not doc:
-        raise CaseError("", "the case file is empty: it needs at least one [[segment]] and a [[restraint]]")
+        raise CaseError("", "the case file is empty: it needs at least one [[segment]] and a [[restraint]] or "
+                            "[[foundation]]")
     check_keys(doc, "", TOP_KEYS | set(tables))
     check_counts(doc)
     title = as_text(doc.get("title", ""), "title")
@@ -117,7 +122,7 @@ def parse_document(doc: dict, source: str = "", sha256: str = "",
     station = Stations(parsed[-1].top)
     origins: dict[str, tuple[TableRef, ...]] = {}
     rest = _restraints(doc, station, planes, E, origins, parsed)
-    point, dist = _loads(doc, station)
+    point, dist = _loads(doc, station, parsed)
     found = _foundations(doc, station, planes, origins)
     lean = _leaning(doc, station, planes, origins)
     columns = []
@@ -131,8 +136,14 @@ def parse_document(doc: dict, source: str = "", sha256: str = "",
         except ModelError as exc:  # pragma: no cover - the case checks come first
             raise CaseError(exc.field, exc.message) from None
         columns.append((ax, col))
+    if len(columns) == 2 and _same_within_rounding(columns[0][1], columns[1][1]):
+        # equal properties about both axes (a tube, a round, a square: I_major and I_minor may differ in the last
+        # digits) and the same supports, loads and foundations: one column for both planes, solved once
+        columns[1] = (columns[1][0], columns[0][1])
+    joint_loads = _member_force_refs(point, parsed)
     for i in range(len(parsed)):
-        origins[f"segment[{i + 1}]"] = tuple(TableRef(ax, "segments", i) for ax in planes)
+        origins[f"segment[{i + 1}]"] = tuple(TableRef(ax, "segments", i) for ax in planes) + tuple(
+            TableRef(ax, "point_loads", k) for k in joint_loads[i] for ax in planes)
     for i in range(len(point)):
         origins[f"load[{i + 1}]"] = tuple(TableRef(ax, "point_loads", i) for ax in planes)
     for i in range(len(dist)):
@@ -140,7 +151,7 @@ def parse_document(doc: dict, source: str = "", sha256: str = "",
     return Case(title=title, planes=tuple(columns), segments=tuple(s.info() for s in parsed),
                 E=E if E is not None else parsed[0].E, fy=fy, n_modes=int(n_modes), tolerance=float(tol),
                 display=display, source=source, sha256=sha256, extras=_extra_tables(doc, tables), material=mat,
-                origins=MappingProxyType(origins), document=MappingProxyType(doc))
+                origins=MappingProxyType(origins), document=MappingProxyType(doc), loads=_load_infos(doc))
 
 
 # ---------------------------------------------------------------------------
@@ -279,6 +290,22 @@ def _plane_segments(parsed: list[_SegmentInput], axis: str) -> tuple[Segment, ..
     return tuple(out)
 
 
+def _same_within_rounding(a: Any, b: Any, rtol: float = 1e-12) -> bool:
+    """Whether two model objects are equal, their numbers to a relative ``rtol`` (rounding of the section
+    properties of a symmetric section about its two axes)."""
+    from dataclasses import fields, is_dataclass
+
+    if is_dataclass(a) and not isinstance(a, type):
+        return type(a) is type(b) and all(_same_within_rounding(getattr(a, f.name), getattr(b, f.name), rtol)
+                                          for f in fields(a))
+    if isinstance(a, tuple):
+        return isinstance(b, tuple) and len(a) == len(b) and all(_same_within_rounding(x, y, rtol)
+                                                                 for x, y in zip(a, b))
+    if isinstance(a, float) and isinstance(b, float):
+        return a == b or math.isclose(a, b, rel_tol=rtol, abs_tol=0.0)
+    return bool(a == b)
+
+
 def _restraints(doc: dict, station: Stations, planes: tuple[str, ...], E: float | None, origins: dict,
                 parsed: list[_SegmentInput]) -> dict[str, list[Restraint]]:
     rest: dict[str, list[Restraint]] = {a: [] for a in planes}
@@ -312,8 +339,10 @@ def _restraints(doc: dict, station: Stations, planes: tuple[str, ...], E: float 
         origins[p] = tuple(TableRef(a, "restraints", len(rest[a])) for a in ax)
         for a in ax:
             rest[a].append(Restraint(at, lateral, by_plane[a]))
-    if not any(rest.values()):
-        raise CaseError("restraint", "no [[restraint]] given: the column is unsupported")
+    if not any(rest.values()) and not as_tables(doc, "foundation"):
+        # a foundation alone can hold the column (a pile in soil): the solver's exact mechanism test decides
+        raise CaseError("restraint", "no [[restraint]] and no [[foundation]] given: the column is unsupported; "
+                                     "give a [[restraint]], or a [[foundation]] for a column held by the ground")
     return rest
 
 
@@ -331,7 +360,22 @@ def _nominal_rotation(word: str, path: str, at: float, H: float, parsed: list[_S
         raise CaseError(path, exc.message) from None
 
 
-def _loads(doc: dict, station: Stations) -> tuple[list[PointLoad], list[DistributedLoad]]:
+def _load_infos(doc: dict) -> tuple[LoadInfo, ...]:
+    """The eccentricities and lateral force of every [[load]] (SI), kept on the case for the record of the inputs."""
+    return tuple(LoadInfo(**{k: parse(f"load[{i + 1}].{k}", t[k], "force" if k == "lateral" else "length")
+                             for k in sorted(LOAD_ACTION_KEYS) if k in t})
+                 for i, t in enumerate(as_tables(doc, "load")))
+
+
+def _loads(doc: dict, station: Stations,
+           parsed: list[_SegmentInput]) -> tuple[list[PointLoad], list[DistributedLoad]]:
+    """The axial loads: [[load]] and [[distributed_load]] tables, or the member forces given per segment.
+
+    Member forces (``axial_force`` on every [[segment]]) replace the axial loads of the case: with them a
+    [[load]] may give only a lateral force, and no [[distributed_load]] is allowed.  They become the
+    equivalent joint loads (:func:`fea.model.column.member_force_loads`), listed after the [[load]] tables.
+    """
+    member, given = _member_forces(doc, parsed)
     point: list[PointLoad] = []
     for i, t in enumerate(as_tables(doc, "load")):
         p = f"load[{i + 1}]"
@@ -339,20 +383,77 @@ def _loads(doc: dict, station: Stations) -> tuple[list[PointLoad], list[Distribu
         if "at" not in t:
             raise CaseError(f"{p}.at", "missing: give 'top' or a height such as '3.0 m'")
         at = station(t["at"], f"{p}.at")
+        if given:
+            _no_axial_load(t, p, given)
         P = parse(f"{p}.axial", t["axial"], "force") if "axial" in t else 0.0
         point.append(PointLoad(at, P, as_bool(t.get("permanent", False), f"{p}.permanent")))
     dist: list[DistributedLoad] = []
     for i, t in enumerate(as_tables(doc, "distributed_load")):
         p = f"distributed_load[{i + 1}]"
+        if given:
+            raise CaseError(p, f"not allowed with member forces given per segment ({given}): include this load "
+                               "in each segment's axial_force (its largest compression in the segment)")
         check_keys(t, p, {"from", "to", "axial", "permanent", "note"})
         a, b = _range(t, p, station)
         if "axial" not in t:
             raise CaseError(f"{p}.axial", "missing: give a load per height such as '0.6 kN/m'")
         q = parse(f"{p}.axial", t["axial"], "force per length")
         dist.append(DistributedLoad(a, b, q, as_bool(t.get("permanent", False), f"{p}.permanent")))
-    if not point and not dist:
+    if not point and not dist and not member:
         raise CaseError("load", "no [[load]] or [[distributed_load]] given: nothing to check")
-    return point, dist
+    return point + member, dist
+
+
+def _member_forces(doc: dict, parsed: list[_SegmentInput]) -> tuple[list[PointLoad], str]:
+    """``axial_force`` / ``axial_force_permanent`` of the [[segment]] tables -> their equivalent joint loads.
+
+    Returns the loads and the key path of the first force given ("" when the case gives none).  Once one
+    segment gives a force, every segment must give ``axial_force`` ('0 kN' where it has none), so that no
+    segment is left out by mistake; ``axial_force_permanent`` is optional (default zero).
+    """
+    tables = as_tables(doc, "segment")
+    given = next((f"segment[{i + 1}].{k}" for i, t in enumerate(tables) for k in MEMBER_FORCE_KEYS if k in t), "")
+    if not given:
+        return [], ""
+    forces: dict[str, list[float]] = {k: [] for k in MEMBER_FORCE_KEYS}
+    for i, t in enumerate(tables):
+        p = f"segment[{i + 1}]"
+        if "axial_force" not in t:
+            raise CaseError(f"{p}.axial_force", f"missing: {given} gives the axial force per segment, so every "
+                                                "segment needs its own (write '0 kN' where there is none)")
+        for k in MEMBER_FORCE_KEYS:
+            N = parse(f"{p}.{k}", t[k], "force") if k in t else 0.0
+            try:
+                PointLoad(0.0, N)  # the range check of an axial force
+            except ModelError as exc:
+                raise CaseError(f"{p}.{k}", exc.message) from None
+            forces[k].append(N)
+    joints = (0.0, *(s.top for s in parsed))
+    loads = member_force_loads(joints, tuple(forces["axial_force"])) + member_force_loads(
+        joints, tuple(forces["axial_force_permanent"]), permanent=True)
+    if not loads:
+        raise CaseError(given, "every segment's axial force is zero: nothing to check")
+    return list(loads), given
+
+
+def _no_axial_load(t: dict, p: str, given: str) -> None:
+    """Refuse the keys of a [[load]] that need its own axial force when member forces are given per segment."""
+    if "axial" in t:
+        raise CaseError(f"{p}.axial", f"not allowed with member forces given per segment ({given}): give every "
+                                      "segment's force as its axial_force, or use [[load]] tables and no axial_force")
+    for k in sorted(LOAD_ACTION_KEYS - {"lateral"}):
+        if k in t:
+            raise CaseError(f"{p}.{k}", f"acts through the load's own axial force, which member forces given per "
+                                        f"segment ({given}) leave out: give the moment as a [[lateral.moment]]")
+
+
+def _member_force_refs(point: list[PointLoad], parsed: list[_SegmentInput]) -> list[list[int]]:
+    """Per segment, the indices of the joint loads its given forces went into: those at its two ends."""
+    at_height: dict[float, list[int]] = {}
+    for k, ld in enumerate(point):
+        if ld.member_forces:
+            at_height.setdefault(ld.at, []).append(k)
+    return [at_height.get(s.bottom, []) + at_height.get(s.top, []) if at_height else [] for s in parsed]
 
 
 def _range(t: dict, p: str, station: Stations) -> tuple[float, float]:

@@ -15,9 +15,10 @@ Parses two optional top-level tables (listed in :data:`fea.pipeline.ANALYSES`):
     40), ``elements`` (least number of elements of the nonlinear model, default
     16), ``method`` (path following: ``"arc-length"`` (default), ``"load"``
     (stops below a limit point, no ultimate load) or ``"displacement"`` (control
-    of the lateral displacement at the largest bow)), ``W`` / ``W_major`` /
-    ``W_minor`` (elastic section moduli for segments without a section shape),
-    ``note``.
+    of the lateral displacement at the largest bow)), ``W`` (one-plane case:
+    segments given by ``I``) or ``W_major`` / ``W_minor`` (two planes) (elastic
+    section moduli for segments without a section shape; a key of the other
+    kind is an error), ``note``.
 ``[lateral]``
     arrays of tables ``[[lateral.point]]`` (``at``, ``force``),
     ``[[lateral.distributed]]`` (``from``, ``to``, ``per_length``, optional
@@ -178,7 +179,21 @@ def _choice(table: dict, key: str, default: str, choices: tuple[str, ...]) -> st
     return value
 
 
-def _section_moduli(table: dict) -> dict[str, float]:
+def _one_plane(doc: dict) -> bool:
+    """True when the segments give a single ``I`` (a one-plane case, as :mod:`fea.io.case` decides)."""
+    segs = doc.get("segment", [])
+    first = segs[0] if isinstance(segs, list) and segs else segs
+    return isinstance(first, dict) and "I" in first
+
+
+def _section_moduli(table: dict, doc: dict) -> dict[str, float]:
+    """``W`` (one-plane case) or ``W_major`` / ``W_minor`` (two planes), keyed by the plane they apply to."""
+    one_plane = _one_plane(doc)
+    for key in ("W_major", "W_minor") if one_plane else ("W",):
+        if key in table:
+            want = ("the segments give a single I (one-plane case): give W" if one_plane else
+                    "the segments give I_major and I_minor (or a section): give W_major and W_minor, one per plane")
+            raise CaseError(f"imperfection.{key}", f"{table[key]!r} given, but {want}")
     W = {}
     for key, ax in (("W", "in-plane"), ("W_major", "major"), ("W_minor", "minor")):
         if key in table:
@@ -212,7 +227,7 @@ def parse_imperfection(table: dict, doc: dict) -> ImperfectionSpec:
     method = _choice(table, "method", "arc-length", PATH_METHODS)
     return ImperfectionSpec(imperfection=imp, axis=axis, residual_stress=float(rs), hardening=float(hard),
                             analysis=analysis, analysis_given="analysis" in table, steps=steps, tolerance=tol,
-                            fibres=fibres, elements=elements, method=method, W=_section_moduli(table),
+                            fibres=fibres, elements=elements, method=method, W=_section_moduli(table, doc),
                             loads=_load_actions(doc, station))
 
 

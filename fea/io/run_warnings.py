@@ -33,6 +33,12 @@ def _plane_notices(res: CaseResults, r: BucklingResult) -> list[Notice]:
                                            f"{r.load_factor:.6g} is an estimate only", r.axis))
     else:
         out.extend(Notice("roundoff-limited", f"{r.axis} axis: {w}", r.axis) for w in r.warnings)
+        short = [i for i, e in enumerate(r.mode_errors) if i > 0 and not e <= r.tolerance]
+        if short:
+            out.append(Notice("not-converged", f"{r.axis} axis: NOT CONVERGED for mode(s) "
+                                               f"{', '.join(str(i + 1) for i in short)}: estimated errors "
+                                               f"{', '.join(f'{r.mode_errors[i]:.1e}' for i in short)} > "
+                                               f"{r.tolerance:.0e}; those load factors are estimates only", r.axis))
     light = [s for s in r.segments if s.advice]
     if light:
         names = "; ".join(f"segment {s.index + 1} '{res.case.segments[s.index].name}' "

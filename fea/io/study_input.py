@@ -154,8 +154,8 @@ def _bounds(bt) -> tuple[BoundSpec, ...]:
             if need not in s:
                 raise CaseError(f"{sp}.{need}", "missing")
         key = parse_key(s["key"])
-        if not key.is_spring:
-            raise CaseError(f"{sp}.key", f"{key.text!r} is not a restraint spring")
+        if not key.is_stiffness:
+            raise CaseError(f"{sp}.key", f"{key.text!r} is not a restraint spring or a foundation modulus")
         lo, hi = key.parse_value(s["low"], f"{sp}.low"), key.parse_value(s["high"], f"{sp}.high")
         if not lo <= hi:
             raise CaseError(f"{sp}.high", "must not be below low")

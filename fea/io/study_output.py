@@ -22,7 +22,8 @@ from ..util.numbers import finite_or_none as _num
 from .summary import fmt
 
 __all__ = ["sweep_dict", "sweep_csv", "brace_dict", "sensitivity_dict", "bounds_dict", "sweep_lines",
-           "brace_lines", "sensitivity_lines", "bounds_lines", "display_unit", "stiffness_text",
+           "brace_lines", "sensitivity_lines", "bounds_lines", "display_unit", "stiffness_text", "engineering_unit",
+           "key_unit",
            "case_notices", "below_one", "BELOW_ONE_KEY", "BELOW_ONE_MARK", "BELOW_ONE_LEGEND",
            "sweep_below_one", "brace_below_one", "bounds_below_one"]
 
@@ -30,6 +31,8 @@ __all__ = ["sweep_dict", "sweep_csv", "brace_dict", "sensitivity_dict", "bounds_
 BELOW_ONE_KEY = "buckles-under-case-loads"
 #: Trailing mark of a table row whose lowest load factor is below 1.
 BELOW_ONE_MARK = "  < 1"
+#: Trailing mark of a sweep row where a plane other than the studied one governs.
+OTHER_MARK = "  *"
 #: The legend of the mark, printed once under a table that shows it.
 BELOW_ONE_LEGEND = "  < 1: lowest load factor below 1: the column buckles under the case loads at that point"
 
@@ -218,6 +221,7 @@ def sweep_dict(study, res, version: str, case_load_factors: CaseLoadFactors | No
         "load_factor": {"governing": finite_list(res.governing),
                         **{a: finite_list(res.load_factors[a]) for a in res.axes}},
         "governing_axis": np.asarray(res.axes, dtype=object)[res.governing_axis].tolist(),
+        "studied_axis": res.studied_axis,
         "below_one": below_one(res.governing).tolist(),
         "below_one_ranges": sweep_below_one(study, res),
         "K": {a: {f"segment {s + 1}": finite_list(res.K[a][..., j]) for j, s in enumerate(res.segments)}
@@ -256,19 +260,22 @@ def brace_dict(study, cb, version: str, case_load_factors: CaseLoadFactors | Non
     out = _header(study, "brace", version)
     out.update(_case_part(case_load_factors))
     out.update({
-        "axis": r.axis, "restraints": list(cb.tables), "kind": r.kind, "stations_m": list(r.stations),
-        "stiffness_unit": "N/m" if r.kind == "lateral" else "N*m/rad",
+        "axis": r.axis, ("restraints" if r.kind in ("lateral", "rotation") else "foundations"): list(cb.tables),
+        "kind": r.kind, "stations_m": list(r.stations),
+        "stiffness_unit": _kind_si_unit(r.kind),
         "given_stiffness": [_num(v) for v in r.given_stiffness],
         "load_factor_given": _num(r.load_factor_given), "load_factor_rigid": _num(r.load_factor_rigid),
         "load_factor_free": _num(r.load_factor_free),
-        "eps": r.eps, "threshold_stiffness": _num(r.threshold),
+        "eps": r.eps, "threshold_stiffness": _num(r.threshold_reached), "threshold_kind": r.threshold_kind,
+        "braced_lengths_m": [list(ab) for ab in r.braced_lengths],
+        "required_axial_force_height_m": r.axial_force_height,
         "fraction": r.fraction, "fraction_stiffness": _num(r.fraction_stiffness),
         "mesh_level": r.level,
-        "winter": {"source": "Winter (1960), ideal stiffness of n equally spaced braces",
+        "winter": {"source": WINTER_SOURCE + " of n equally spaced braces",
                    "n_braces": len(r.restraints), "coefficient": r.winter_coefficient,
                    "axial_force_N": r.axial_force_rigid, "spacing_m": r.spacing,
                    "equally_spaced": r.equally_spaced, "ideal_stiffness": _num(r.winter_stiffness)},
-        "aisc_360_appendix_6": {"source": "AISC 360-16 Appendix 6.2, point (nodal) column bracing, from memory",
+        "aisc_360_appendix_6": {"source": AISC_SOURCE,
                                 "phi": 0.75, "required_axial_force_N": r.axial_force_design,
                                 "stiffness_N_per_m": _num(r.aisc_stiffness),
                                 "strength_N": _num(r.aisc_strength),
@@ -294,14 +301,14 @@ def sensitivity_dict(study, cs, version: str, case_load_factors: CaseLoadFactors
     out.update({
         "load_factors": {a: _num(v) for a, v in cs.load_factors.items()},
         "governing_axis": cs.governing_axis,
-        "springs": [{"restraint": t, "axis": e.axis, "kind": e.kind, "at_m": e.at,
-                     "stiffness": _num(e.stiffness), "unit": "N/m" if e.kind == "lateral" else "N*m/rad",
+        "springs": [{e.source: t, "axis": e.axis, "kind": e.kind, "at_m": e.at,
+                     "stiffness": _num(e.stiffness), "unit": _kind_si_unit(e.kind),
                      "rigid": e.rigid, "load_factor": _num(e.load_factor), "below_one": bool(e.load_factor < 1.0),
                      "derivative": _num(e.derivative), "normalised": _num(e.normalised),
                      "finite_difference": _num(e.fd_derivative),
                      "relative_difference": _num(e.fd_relative_difference), "note": e.note}
                     for t, e in zip(cs.tables, cs.entries)],
-        "ranking": [{"restraint": t, "axis": e.axis, "kind": e.kind, "normalised": e.normalised}
+        "ranking": [{e.source: t, "axis": e.axis, "kind": e.kind, "normalised": e.normalised}
                     for t, e in cs.ranking()],
     })
     return out
@@ -351,17 +358,52 @@ def display_unit(si_unit: str, d) -> tuple[str, float]:
     return table.get(si_unit, (si_unit, 1.0))
 
 
+#: Metric forces a stiffness may be scaled to, so that its number stays below 1000 (180 MN*m/rad, not
+#: 180000 kN*m/rad); imperial display forces are kept as they are.
+_METRIC_FORCES = (("N", 1.0), ("kN", 1e3), ("MN", 1e6), ("GN", 1e9))
+#: SI units of the quantities whose display force is scaled with their size.
+_SCALED = ("N/m", "N*m/rad", "N/m^2")
+
+
+def engineering_unit(si_unit: str, d, magnitude: float) -> tuple[str, float]:
+    """The display unit of ``d`` for a stiffness (``si_unit`` N/m, N*m/rad or N/m^2) of about ``magnitude``
+    [SI], with its force stepped up from the display force (kN -> MN -> GN) until the number is below 1000;
+    and the SI value of one such unit.  Other quantities: :func:`display_unit`."""
+    unit, scale = display_unit(si_unit, d)
+    names = [n for n, _ in _METRIC_FORCES]
+    if si_unit not in _SCALED or d.force not in names or not (math.isfinite(magnitude) and magnitude > 0):
+        return unit, scale
+    i = names.index(d.force)
+    while i + 1 < len(names) and abs(magnitude) / scale >= 1000.0:
+        scale *= _METRIC_FORCES[i + 1][1] / _METRIC_FORCES[i][1]
+        i += 1
+    return names[i] + unit[len(d.force):], scale
+
+
+def key_unit(key, values, d) -> tuple[str, float]:
+    """(unit label, SI value of one unit) for the values of a study key in display units ``d``: stiffnesses in
+    engineering units sized to the geometric middle of the finite, nonzero values."""
+    v = np.asarray(values, dtype=float)
+    fin = np.abs(v[np.isfinite(v) & (v != 0)])
+    mag = float(np.sqrt(np.min(fin) * np.max(fin))) if fin.size else math.nan
+    return engineering_unit(key.si_unit, d, mag)
+
+
+def _kind_si_unit(kind: str) -> str:
+    return {"lateral": "N/m", "rotation": "N*m/rad"}.get(kind, "N/m^2")
+
+
 def stiffness_text(v: float | None, kind: str, d) -> str:
-    """A spring stiffness in display units ``d``: "rigid", "free", "not reached" (None) or a number and unit."""
+    """A spring stiffness (``kind`` lateral, rotation, or a foundation modulus) in display units ``d``, in
+    engineering units (180 MN*m/rad): "rigid", "free", "not reached" (None) or a number and unit."""
     if v is None:
         return "not reached"
     if math.isinf(v):
         return "rigid"
     if v == 0:
         return "free"
-    if kind == "lateral":
-        return f"{fmt(v / d.force_si * d.length_si)} {d.force}/{d.length}"
-    return f"{fmt(v / (d.force_si * d.length_si))} {d.force}*{d.length}/rad"
+    unit, scale = engineering_unit(_kind_si_unit(kind), d, v)
+    return f"{fmt(v / scale)} {unit}"
 
 
 # ---------------------------------------------------------------------------
@@ -397,12 +439,22 @@ def sweep_lines(study, res, charts=(), case_load_factors: CaseLoadFactors | None
 
 
 def _sweep_table(study, res) -> list[str]:
-    """At most about 16 rows of a one-parameter sweep (always the last)."""
+    """At most about 16 rows of a one-parameter sweep (always the last).
+
+    K is that of the studied plane on every row (:attr:`SweepResult.studied_axis`), whichever plane governs;
+    the governing plane has its own column and a row where another plane governs is marked.
+    """
     r = res.ranges[0]
-    unit, scale = display_unit(r.key.si_unit, study.case.display)
-    out = [f"  {r.key.text + ' [' + unit + ']':>28} {'load factor':>12} {'axis':>8} "
-           + " ".join(f"{'K seg ' + str(s + 1):>9}" for s in res.segments)]
-    Kg = res.K_governing()
+    unit, scale = key_unit(r.key, r.values, study.case.display)
+    plane = res.studied_axis or res.axes[0]
+    two = len(res.axes) > 1
+    out = []
+    if two:
+        out.append(f"  K: {plane} plane at every point; 'governs': the plane of the lowest load factor")
+    out.append(f"  {r.key.text + ' [' + unit + ']':>28} {'load factor':>12} {'governs':>8} "
+               + " ".join(f"{'K seg ' + str(s + 1):>9}" for s in res.segments))
+    Kp = res.K_studied()
+    other = res.other_governs()
     step = max(1, r.values.size // 15)
     shown = sorted(set(list(range(0, r.values.size, step)) + [r.values.size - 1]))
     low = below_one(res.governing)
@@ -410,10 +462,12 @@ def _sweep_table(study, res) -> list[str]:
         v = r.values[i]
         vt = "free" if r.key.is_spring and v == 0 else "rigid" if math.isinf(v) else fmt(v / scale)
         out.append(f"  {vt:>28} {fmt(res.governing[i]):>12} {res.axes[res.governing_axis[i]]:>8} "
-                   + " ".join(f"{'-' if math.isnan(k) else f'{k:.4f}':>9}" for k in Kg[i])
-                   + (BELOW_ONE_MARK if low[i] else ""))
+                   + " ".join(f"{'-' if math.isnan(k) else f'{k:.4f}':>9}" for k in Kp[i])
+                   + (OTHER_MARK if two and other[i] else "") + (BELOW_ONE_MARK if low[i] else ""))
     if len(shown) < r.values.size:
         out.append(f"  ({len(shown)} of {r.values.size} rows shown; all in --csv / --json)")
+    if two and other[shown].any():
+        out.append(f"{OTHER_MARK}: the other plane governs at that point; K stays the {plane} plane's")
     if low[shown].any():
         out.append(BELOW_ONE_LEGEND)
     return out
@@ -427,20 +481,26 @@ def brace_lines(study, cb, charts=(), case_load_factors: CaseLoadFactors | None 
         return fmt(v) + (" (< 1)" if v < 1.0 else "")
 
     out = [_title(study), *_warning_lines(case_load_factors),
-           f"brace study, {r.axis} plane, {r.kind} restraint(s) {', '.join(map(str, cb.tables))} at "
-           f"{', '.join(fmt(d.L(s)) for s in r.stations)} {d.length}, varied together",
+           (f"brace study, {r.axis} plane, {r.kind} restraint(s) {', '.join(map(str, cb.tables))} at "
+            f"{', '.join(fmt(d.L(s)) for s in r.stations)} {d.length}, varied together"
+            if r.kind in ("lateral", "rotation") else
+            f"foundation study, {r.axis} plane, {r.kind} of foundation(s) {', '.join(map(str, cb.tables))} "
+            f"(rigid: the foundations' ranges held), varied together"),
            f"  load factor: braces as given {lf(r.load_factor_given)}, rigid {lf(r.load_factor_rigid)}, "
            f"removed {lf(r.load_factor_free) if r.load_factor_free > 0 else '0 (mechanism)'}",
-           f"  threshold stiffness (load factor within {r.eps:.0e} of rigid): {stiffness_text(r.threshold, r.kind, d)}",
            f"  stiffness for {100 * r.fraction:g}% of the rigid-brace load factor: "
-           f"{stiffness_text(r.fraction_stiffness, r.kind, d)}"]
+           f"{stiffness_text(r.fraction_stiffness, r.kind, d)}",
+           f"  {_threshold_text(r, d)}"]
     if r.kind == "lateral":
         even = "equally spaced" if r.equally_spaced else "NOT equally spaced: Winter's rule is indicative only"
-        out.append(f"  Winter (1960), {len(r.restraints)} brace(s), {even}: {r.winter_coefficient:.3f} P/Lb with "
-                   f"P = {fmt(d.F(r.axial_force_rigid))} {d.force}, Lb = {fmt(d.L(r.spacing))} {d.length}: "
-                   f"{stiffness_text(r.winter_stiffness, 'lateral', d)}")
-        out.append(f"  AISC 360-16 App. 6.2 point bracing (from memory), P_r = {fmt(d.F(r.axial_force_design))} "
-                   f"{d.force}: stiffness 8 P_r/(0.75 Lb) = {stiffness_text(r.aisc_stiffness, 'lateral', d)}, "
+        lengths = ", ".join(f"{fmt(d.L(a))} to {fmt(d.L(b))}" for a, b in r.braced_lengths)
+        out.append(f"  P_r = {fmt(d.F(r.axial_force_design))} {d.force}: the largest compression at load factor 1 "
+                   f"in the braced lengths next to the brace(s) ({lengths} {d.length}), at "
+                   f"{fmt(d.L(r.axial_force_height))} {d.length}")
+        out.append(f"  {WINTER_SOURCE}, {len(r.restraints)} brace(s), {even}: {r.winter_coefficient:.3f} P/Lb "
+                   f"with P = {fmt(d.F(r.axial_force_rigid))} {d.force} (the same lengths at the rigid-brace critical "
+                   f"load), Lb = {fmt(d.L(r.spacing))} {d.length}: {stiffness_text(r.winter_stiffness, 'lateral', d)}")
+        out.append(f"  {AISC_SOURCE}: stiffness 8 P_r/(0.75 Lb) = {stiffness_text(r.aisc_stiffness, 'lateral', d)}, "
                    f"strength 0.01 P_r = {fmt(d.F(r.aisc_strength))} {d.force}")
     if cb.force is not None:
         fs = ", ".join(f"{fmt(d.F(f))} {d.force} ({100 * q:.2f}% of P)" for f, q in zip(cb.force.forces,
@@ -453,23 +513,42 @@ def brace_lines(study, cb, charts=(), case_load_factors: CaseLoadFactors | None 
     return out + _ending(charts)
 
 
+#: The published sources of the bracing rules beside the brace study.
+WINTER_SOURCE = "Winter, G. (1960), \"Lateral bracing of columns and beams\", Trans. ASCE 125, ideal stiffness"
+AISC_SOURCE = "AISC 360-16 Appendix 6, 6.2 point bracing of columns (from memory)"
+
+
+def _threshold_text(r, d) -> str:
+    """The threshold stiffness where it is a result (a corner of the curve), else why there is none."""
+    if r.threshold_kind == "corner":
+        return (f"threshold stiffness {stiffness_text(r.threshold, r.kind, d)}: the load factor reaches its "
+                "rigid-brace value there (the mode switches to one with a node at the brace)")
+    if r.threshold_kind == "not needed":
+        return "threshold stiffness: none needed (the load factor reaches its rigid-brace value without braces)"
+    if r.threshold_kind == "not reached":
+        return "threshold stiffness: not reached by any finite stiffness"
+    return ("no threshold stiffness: the load factor approaches its rigid-brace value only as the stiffness "
+            f"grows without bound; a stiffness within {r.eps:.0e} of it would be set by that tolerance alone")
+
+
 def sensitivity_lines(study, cs, case_load_factors: CaseLoadFactors | None = None) -> list[str]:
     """The summary of the spring sensitivities, ending with the restraint that matters most."""
     d = study.case.display
     out = [_title(study), *_warning_lines(case_load_factors),
-           "sensitivity of the lowest load factor to each spring (from the mode shape; "
+           "sensitivity of the lowest load factor to each spring and foundation modulus (from the mode shape; "
            "normalised = (k / load factor) d(load factor)/dk)",
-           f"  {'restraint':>9} {'axis':>8} {'kind':>8} {'at':>8} {'stiffness':>22} {'normalised':>11} "
+           f"  {'support':>12} {'axis':>8} {'kind':>14} {'at':>8} {'stiffness':>22} {'normalised':>11} "
            f"{'FD check':>9}"]
     marked = False
     for t, e in zip(cs.tables, cs.entries):
+        name = f"{e.source} {t}"
         mark = BELOW_ONE_MARK if e.load_factor < 1.0 else ""
         marked = marked or bool(mark)
         if e.rigid:
-            out.append(f"  {t:>9} {e.axis:>8} {e.kind:>8} {fmt(d.L(e.at)):>8} {'rigid':>22} {'(rigid)':>11}{mark}")
+            out.append(f"  {name:>12} {e.axis:>8} {e.kind:>14} {fmt(d.L(e.at)):>8} {'rigid':>22} {'(rigid)':>11}{mark}")
             continue
         chk = "-" if e.fd_relative_difference is None else f"{e.fd_relative_difference:.0e}"
-        out.append(f"  {t:>9} {e.axis:>8} {e.kind:>8} {fmt(d.L(e.at)):>8} "
+        out.append(f"  {name:>12} {e.axis:>8} {e.kind:>14} {fmt(d.L(e.at)):>8} "
                    f"{stiffness_text(e.stiffness, e.kind, d):>22} "
                    f"{e.normalised:11.4f} {chk:>9}{'  ' + e.note if e.note else ''}{mark}")
     if marked:
@@ -479,7 +558,7 @@ def sensitivity_lines(study, cs, case_load_factors: CaseLoadFactors | None = Non
         t, e = rank[0]
         lam = cs.load_factors[cs.governing_axis]
         out.append(f"which restraint matters most ({cs.governing_axis} plane governs, load factor "
-                   f"{fmt(lam)}{' < 1' if lam < 1.0 else ''}): restraint {t} {e.kind} at {fmt(d.L(e.at))} "
+                   f"{fmt(lam)}{' < 1' if lam < 1.0 else ''}): {e.source} {t} {e.kind} at {fmt(d.L(e.at))} "
                    f"{d.length}: 1% stiffer raises the load factor by {e.normalised:.3f}%")
     return out + _ending()
 

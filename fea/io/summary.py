@@ -44,8 +44,10 @@ def summary_lines(res: CaseResults, display: DisplayUnits | None = None,
         lf = ", ".join(fmt(v) for v in r.load_factors)
         out.append(f"Axis {r.axis}: load factors {lf}")
         flag = "" if r.converged else "  NOT CONVERGED"
-        out.append(f"  mesh {r.n_elements} elements, estimated error of the lowest load factor "
-                   f"{r.discretisation_error:.1e} (tolerance {r.tolerance:.0e}){flag}")
+        errs = ", ".join(f"{e:.1e}" for e in r.mode_errors) if len(r.mode_errors) > 1 else \
+            f"{r.discretisation_error:.1e}"
+        out.append(f"  mesh {r.n_elements} elements, estimated error of the load factor"
+                   f"{'s' if len(r.mode_errors) > 1 else ''} {errs} (tolerance {r.tolerance:.0e}){flag}")
         out.append(f"  {'segment':<22} {'from-to [' + d.length + ']':>15} {'N [' + d.force + ']':>11} "
                    f"{'N_cr [' + d.force + ']':>12} {'K':>7} {'K L [' + d.length + ']':>10} {'energy':>7}")
         for s, info in zip(r.segments, case.segments):

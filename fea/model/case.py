@@ -11,7 +11,7 @@ from .column import Column
 if TYPE_CHECKING:
     from ..units import DisplayUnits
 
-__all__ = ["Case", "SegmentInfo", "TableRef"]
+__all__ = ["Case", "LoadInfo", "SegmentInfo", "TableRef"]
 
 
 @dataclass(frozen=True)
@@ -30,6 +30,17 @@ class SegmentInfo:
     shape: Any = None
     #: its properties (I_major, I_minor, A, r_least, theta, J, shape name), SI; None without one
     properties: Mapping[str, Any] | None = None
+
+
+@dataclass(frozen=True)
+class LoadInfo:
+    """What a ``[[load]]`` says beyond its axial force (SI; None where not given): the eccentricities [m] and the
+    lateral force [N] that the imperfect-column analysis applies (kept for the record of the inputs)."""
+
+    eccentricity: float | None = None
+    eccentricity_major: float | None = None
+    eccentricity_minor: float | None = None
+    lateral: float | None = None
 
 
 @dataclass(frozen=True)
@@ -80,6 +91,8 @@ class Case:
     origins: Mapping[str, tuple[TableRef, ...]] = field(default_factory=dict)
     #: the case document as parsed (plain TOML data, read-only view) for rebuilding with changed values
     document: Mapping[str, Any] = field(default_factory=lambda: MappingProxyType({}))
+    #: per ``[[load]]`` table, in file order (``point_loads`` of every plane in the same order)
+    loads: tuple[LoadInfo, ...] = ()
 
     def model_objects(self, table: str) -> tuple[tuple[str, Any], ...]:
         """(axis, model object) pairs an input table became, e.g. ``model_objects("restraint[1]")``."""

@@ -16,6 +16,10 @@ Conventions
   restraints are imposed by eliminating degrees of freedom.
 * Loads are *variable* (multiplied by the load factor) or *permanent* (held at
   their value while the variable part is scaled).
+* Member forces given per segment (a truss chord, a frame column from a global
+  analysis) are held as their equivalent joint loads (:func:`member_force_loads`):
+  ``N_i - N_(i+1)`` at the top of segment ``i``, marked ``member_forces=True``,
+  so the axial force and everything built on it is the same as for point loads.
 """
 
 from __future__ import annotations
@@ -35,6 +39,7 @@ __all__ = [
     "DistributedLoad",
     "LeaningLoad",
     "Column",
+    "member_force_loads",
 ]
 
 FREE = 0.0
@@ -216,11 +221,17 @@ class Foundation:
 
 @dataclass(frozen=True, slots=True)
 class PointLoad:
-    """Axial point load at a station [N], compression positive."""
+    """Axial point load at a station [N], compression positive.
+
+    ``member_forces`` marks a joint load that stands for member forces given
+    per segment (:func:`member_force_loads`) rather than a load applied there:
+    figures and reports show those as an axial-force diagram, not as a load.
+    """
 
     at: float
     P: float
     permanent: bool = False
+    member_forces: bool = False
 
     def __post_init__(self) -> None:
         _finite("at", self.at, "m")
@@ -273,6 +284,40 @@ class LeaningLoad:
         if self.P < 0:
             raise ModelError("leaning load", f"must be >= 0 N (gravity on the leaning columns), got {self.P!r}")
         _positive("height", self.height, "m")
+
+
+def member_force_loads(joints: tuple[float, ...], forces: tuple[float, ...],
+                       permanent: bool = False) -> tuple[PointLoad, ...]:
+    """The joint loads equivalent to a given axial force in each segment.
+
+    Axial load is carried down to the base, so the force in segment ``i`` is
+    the sum of the point loads at and above its top.  Compressions ``N_i``
+    given per segment are therefore the loads ``N_i - N_(i+1)`` at the top of
+    segment ``i`` (``N_n = 0`` above the top segment): a force that drops
+    towards the base gives a negative (upward) joint load.  Loads of zero are
+    left out.
+
+    Parameters
+    ----------
+    joints : (n + 1,) heights of the segment ends, base first [m] (:attr:`Column.joints`)
+    forces : (n,) compression in each segment, base first [N]; negative is tension
+    permanent : whether the forces are permanent (held) or variable (scaled by the load factor)
+
+    Returns
+    -------
+    The joint loads, base upward, each marked ``member_forces=True``.
+    """
+    if len(joints) != len(forces) + 1:
+        raise ModelError("member forces", f"expected one force per segment ({len(joints) - 1}), got {len(forces)}")
+    for i, N in enumerate(forces):
+        _finite(f"forces[{i}]", N, "N")
+    out = []
+    for i, N in enumerate(forces):
+        above = forces[i + 1] if i + 1 < len(forces) else 0.0
+        P = N - above
+        if P != 0.0:
+            out.append(PointLoad(joints[i + 1], P, permanent=permanent, member_forces=True))
+    return tuple(out)
 
 
 @dataclass(frozen=True, slots=True)
@@ -369,6 +414,10 @@ class Column:
     def axial_force(self, x, permanent: bool | None = None):
         """Axial compression at heights ``x`` just below any point load there [N].
 
+        With member forces given per segment (:func:`member_force_loads`) this is
+        the given force of the segment at ``x`` (at a joint: of the segment above; zero at the top),
+        so an axial-force diagram drawn from it shows the forces as given.
+
         Parameters
         ----------
         x : float or ndarray
@@ -381,14 +430,25 @@ class Column:
         x = np.asarray(x, dtype=float)
         tol = STATION_TOL * self.height
         N = np.zeros_like(x)
-        for p in self.point_loads:
-            if permanent is None or p.permanent == permanent:
-                N = N + np.where(x < p.at - tol, p.P, 0.0)
+        loads = [p for p in self.point_loads if permanent is None or p.permanent == permanent]
+        if loads:
+            # a load counts at x < at - tol: sums of the loads from the top down, found by bisection (a column of
+            # many segments with their forces given per segment has a load at nearly every joint)
+            at = np.array([p.at for p in loads]) - tol
+            order = np.argsort(at, kind="stable")
+            P = np.array([p.P for p in loads])[order]
+            from_top = np.append(np.cumsum(P[::-1])[::-1], 0.0)  # from_top[k]: sum of the loads k, k+1, ...
+            N = N + from_top[np.searchsorted(at[order], x, side="right")]
         for d in self.distributed_loads:
             if permanent is None or d.permanent == permanent:
                 above = np.clip(d.top - np.maximum(x, d.bottom), 0.0, None)
                 N = N + d.q * above
         return N
+
+    @property
+    def member_forces_given(self) -> bool:
+        """Whether the axial forces were given per segment (joint loads marked ``member_forces``)."""
+        return any(p.member_forces for p in self.point_loads)
 
     @property
     def has_variable_load(self) -> bool:

@@ -31,7 +31,6 @@ from .style import (
     INK,
     SPRING_LEN,
     X_LEFT_LABEL,
-    X_RIGHT_DIST,
     X_RIGHT_LOAD,
 )
 from .text import (
@@ -43,6 +42,7 @@ from .text import (
     lean_text,
     load_text,
     spring_text,
+    text_height,
     text_width,
 )
 
@@ -91,11 +91,15 @@ def merged_restraints(column: Column) -> list[Restraint]:
 
 
 def point_load_groups(column: Column) -> list[tuple[float, list]]:
-    """Non-zero point loads grouped by station, ascending."""
+    """Non-zero point loads grouped by station, ascending.
+
+    Joint loads that stand for member forces given per segment are left out: the axial-force diagram
+    shows those (:mod:`fea.plot.forces`).
+    """
     tol = STATION_TOL * column.height
     groups: dict[float, list] = {}
     for p in column.point_loads:
-        if p.P == 0:
+        if p.P == 0 or p.member_forces:
             continue
         key = next((k for k in groups if abs(k - p.at) <= tol), p.at)
         groups.setdefault(key, []).append(p)
@@ -159,11 +163,64 @@ def _inertia_labels(ax: Axes, column: Column) -> list[Label]:
     return labels
 
 
-def _draw_point_loads(ax: Axes, column: Column, units: PlotUnits) -> list[Label]:
-    """Point loads: at the top on the axis, elsewhere beside the column with a leader; several at one
-    station side by side, one label listing them left to right."""
+ARROW_LEN = 22.0     # point-load arrow [pt]
+LOAD_STEP = 10.0     # between the arrows of loads at one station [pt]
+DIST_STEP = 9.0      # between the columns of distributed loads [pt]
+
+
+def _dist_x0(column: Column) -> float:
+    """x of the first column of distributed-load arrows: next to the band, or beyond the foundation strip."""
+    return (foundation_right() + 5.0) if column.foundations else BAND_MAX + 7.0
+
+
+def _pt_per_m(column: Column, ax: Axes | None) -> float:
+    """Points per metre of height: of ``ax`` when given, else of the standard panel (:data:`style.AX_HEIGHT`)."""
+    if ax is not None:
+        return sym.y_to_pt(ax, 1.0) - sym.y_to_pt(ax, 0.0)
+    from .style import AX_HEIGHT
+
+    return (AX_HEIGHT * 72.0 - 50.0) / column.height
+
+
+def load_lanes(column: Column, ax: Axes | None = None) -> dict[float, float]:
+    """x [pt from the axis] of the first arrow of each station's point loads.
+
+    Loads at the top stand on the axis.  Loads lower down stand beside the column, right of any
+    distributed loads; where the arrows of two stations would overlap (they are 22 pt tall), the
+    upper one moves to the next lane to the right, so no arrow is drawn over another.
+    """
     H = column.height
     tol = STATION_TOL * H
+    n_dist = sum(1 for d in column.distributed_loads if d.q != 0)
+    x0 = max(X_RIGHT_LOAD, _dist_x0(column) + DIST_STEP * n_dist + 4.0) if n_dist else X_RIGHT_LOAD
+    ppm = _pt_per_m(column, ax)
+    lanes: list[tuple[float, float]] = []   # (top of the highest arrow [pt], width) per lane
+    out: dict[float, float] = {}
+    for at, loads in point_load_groups(column):
+        if abs(at - H) <= tol:
+            out[at] = 0.0
+            continue
+        yp = at * ppm
+        width = LOAD_STEP * len(loads)
+        k = next((i for i, (top, _w) in enumerate(lanes) if top <= yp - 2.0), len(lanes))
+        if k == len(lanes):
+            lanes.append((yp + ARROW_LEN, width))
+        else:
+            lanes[k] = (yp + ARROW_LEN, max(lanes[k][1], width))
+        out[at] = float(k)   # a lane number for now
+    starts = [x0]
+    for _top, w in lanes[:-1]:
+        starts.append(starts[-1] + w + 2.0)
+    return {at: (0.0 if abs(at - H) <= tol else starts[int(k)]) for at, k in out.items()}
+
+
+def _draw_point_loads(ax: Axes, column: Column, units: PlotUnits) -> list[Label]:
+    """Point loads: at the top on the axis, elsewhere beside the column with a line to the axis; several
+    at one station side by side, one label listing them left to right.  Each arrow points the way its load
+    acts: down for a positive (compressive) load, up from the station for a negative one."""
+    H = column.height
+    tol = STATION_TOL * H
+    lanes = load_lanes(column, ax)
     labels = []
     for at, loads in point_load_groups(column):
         yp = sym.y_to_pt(ax, at)
@@ -171,10 +228,10 @@ def _draw_point_loads(ax: Axes, column: Column, units: PlotUnits) -> list[Label]
         hw = half_width_at(column, at)
         x_end = 0.0
         for i, p in enumerate(loads):
-            dx = (0.0 if top else X_RIGHT_LOAD) + i * 10.0
-            if not top and i == len(loads) - 1:
-                sym.line(ax, sym.pt(ax, 0.0, at), [hw, dx], [0.0, 0.0], lw=0.9, zorder=7)
-            sym.load_arrow(ax, 0.0, at, dx=dx, length=22.0 if p.P > 0 else -22.0, hollow=p.permanent)
+            dx = lanes[at] + i * LOAD_STEP
+            if not top and i == len(loads) - 1:   # behind the distributed-load arrows it may cross
+                sym.line(ax, sym.pt(ax, 0.0, at), [hw, dx], [0.0, 0.0], lw=0.9, zorder=6.5)
+            sym.load_arrow(ax, 0.0, at, dx=dx, length=ARROW_LEN if p.P > 0 else -ARROW_LEN, hollow=p.permanent)
             x_end = dx + 5.0
         text = "\n".join(load_text(p, units) for p in loads)
         labels.append(Label(yp + 13.0, text, x_end, yp + 13.0))
@@ -182,12 +239,13 @@ def _draw_point_loads(ax: Axes, column: Column, units: PlotUnits) -> list[Label]
 
 
 def _draw_distributed_loads(ax: Axes, column: Column, units: PlotUnits) -> list[Label]:
+    """Distributed loads: a column of small arrows each, next to the column; they point the way the load acts."""
     labels = []
     k_dist = 0
     for d in column.distributed_loads:
         if d.q == 0:
             continue
-        x = X_RIGHT_DIST + 9.0 * k_dist
+        x = _dist_x0(column) + DIST_STEP * k_dist
         k_dist += 1
         y0, y1 = sym.y_to_pt(ax, d.bottom), sym.y_to_pt(ax, d.top)
         length = 8.0 if d.q > 0 else -8.0
@@ -201,39 +259,76 @@ def _draw_distributed_loads(ax: Axes, column: Column, units: PlotUnits) -> list[
     return labels
 
 
+def ground_level(column: Column) -> float | None:
+    """Height of the ground line: the top of the highest foundation, when it is below the top of the column."""
+    if not column.foundations:
+        return None
+    top = max(f.top for f in column.foundations)
+    return top if top < column.height * (1.0 - STATION_TOL) else None
+
+
+def draw_foundations(ax: Axes, column: Column, ground_span: tuple[float, float], **kw) -> None:
+    """Foundation strips whose width follows the modulus (relative to the largest of the column), and the
+    ground line across the column at the top of the highest foundation."""
+    k_max = max((max(abs(f.k_bottom), abs(f.k_top_value)) for f in column.foundations), default=0.0)
+    for f in column.foundations:
+        sym.foundation(ax, f.bottom, f.top, abs(f.k_bottom) / k_max, abs(f.k_top_value) / k_max, **kw)
+    g = ground_level(column)
+    if g is not None:
+        sym.ground(ax, g, *ground_span, color=kw.get("color", INK))
+
+
+def foundation_right() -> float:
+    """Right end of the widest foundation strip [pt from the axis]."""
+    return BAND_MAX + 3.0 + sym.FOUNDATION_WIDTH
+
+
 def draw_loads(ax: Axes, column: Column, units: PlotUnits, x_label: float) -> list[Label]:
     """Axial point and distributed loads, foundations and leaning loads; returns right-hand labels."""
     labels: list[Label] = []
+    draw_foundations(ax, column, (-(BAND_MAX + 9.0), foundation_right() + 3.0))
     for f in column.foundations:
-        sym.foundation(ax, f.bottom, f.top)
         ym = sym.y_to_pt(ax, 0.5 * (f.bottom + f.top))
-        labels.append(Label(ym, found_text(f, units), BAND_MAX + 12.5, ym))
+        labels.append(Label(ym, found_text(f, units), foundation_right() + 1.5, ym))
     labels += _draw_point_loads(ax, column, units)
     labels += _draw_distributed_loads(ax, column, units)
     for lean in column.leaning_loads:
         if lean.P == 0:
             continue
-        hw = half_width_at(column, lean.at)
-        tail = sym.side_arrow(ax, 0.0, lean.at, tip=hw + 1.0, length=x_label - hw - 5.0, dashed=lean.permanent)
+        clear = _axis_clearance(column, lean.at)
+        tail = sym.side_arrow(ax, 0.0, lean.at, tip=clear + 1.0, length=x_label - clear - 5.0, dashed=lean.permanent)
         yp = sym.y_to_pt(ax, lean.at)
-        labels.append(Label(yp, lean_text(lean, units), tail, yp))
+        # the label hangs below the arrow's line, clear of a point load's label above the station
+        text = lean_text(lean, units)
+        labels.append(Label(yp + 4.0 - 0.5 * text_height(text, FS), text, tail, yp))
     return labels
 
 
+def _axis_clearance(column: Column, at: float) -> float:
+    """Half-width taken up on the axis at station ``at`` by the band and any rotational symbol [pt]."""
+    clear = half_width_at(column, at)
+    tol = STATION_TOL * column.height
+    for r in merged_restraints(column):
+        if abs(r.at - at) <= tol:
+            if math.isinf(r.rotation):
+                clear = max(clear, 3.3)
+            elif r.rotation > 0:
+                clear = max(clear, 6.8)
+    return clear
+
+
 # -- room for the labels ------------------------------------------------------------------------
-def right_label_x(column: Column) -> float:
+def right_label_x(column: Column, ax: Axes | None = None) -> float:
     """Where the right-hand labels start [pt from the axis]: just clear of the symbols there."""
-    H = column.height
-    tol = STATION_TOL * H
     ext = 0.0
+    lanes = load_lanes(column, ax)
     for at, loads in point_load_groups(column):
-        base = 0.0 if abs(at - H) <= tol else X_RIGHT_LOAD
-        ext = max(ext, base + (len(loads) - 1) * 10.0 + 4.5)
+        ext = max(ext, lanes[at] + (len(loads) - 1) * LOAD_STEP + 4.5)
     if column.foundations:
-        ext = max(ext, BAND_MAX + 12.0)
+        ext = max(ext, foundation_right() + 3.0)
     n_dist = sum(1 for d in column.distributed_loads if d.q != 0)
     if n_dist:
-        ext = max(ext, X_RIGHT_DIST + 9.0 * (n_dist - 1) + 3.0)
+        ext = max(ext, _dist_x0(column) + DIST_STEP * (n_dist - 1) + 3.0)
     if any(lean.P != 0 for lean in column.leaning_loads):
         ext = max(ext, BAND_MAX + 24.0)
     return ext + 7.0
@@ -319,7 +414,7 @@ def draw_model_panel(ax: Axes, column: Column, units: PlotUnits, y_max: float, e
     draw_band(ax, column, edge=True)
     draw_stations(ax, column, tick=3.5)
     left_labels = draw_restraints(ax, column, units, scale=1.0) + _inertia_labels(ax, column)
-    x_label = right_label_x(column)
+    x_label = right_label_x(column, ax)
     right_labels = draw_loads(ax, column, units, x_label)
     draw_labels(ax, left_labels, left_label_x(column), "left")
     draw_labels(ax, right_labels, x_label, "right")

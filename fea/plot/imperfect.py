@@ -7,8 +7,9 @@
   stress along the height at one load factor (second-order elastic analysis),
   the column drawn upright.
 * :func:`plot_comparison` -- bars of the load factors: elastic critical (eigen),
-  Euler load of the segment, Perry-Robertson first yield, this tool's first
-  yield and ultimate load.
+  Euler load of the segment, Perry-Robertson first yield, the first yield of
+  each model that found one (elastic second order without residual stress;
+  fibre model, with residual stress when given) and the ultimate load.
 
 Every function takes an :class:`~fea.solve.imperfect.ImperfectResult` and
 returns a :class:`matplotlib.figure.Figure`; units are given as
@@ -56,6 +57,8 @@ def plot_path(r: ImperfectResult, *, length_unit=("mm", 1e-3), fig: Figure | Non
     fig : an existing figure to draw into (a new one by default)
     """
     fig = fig or _new_figure((6.4, 4.6))
+    from ..solve.imperfect import ELASTIC_MODEL
+
     ax = fig.add_subplot()
     lu, ls = length_unit
     nl, so = r.nonlinear, r.second_order
@@ -63,7 +66,7 @@ def plot_path(r: ImperfectResult, *, length_unit=("mm", 1e-3), fig: Figure | Non
     if nl is not None:
         h_ctrl = nl.control_height
         x = nl.control_deflection / ls
-        ax.plot(x, nl.load_factors, "-", color=C_NL, lw=1.8, label="nonlinear (co-rotational, fibres)")
+        ax.plot(x, nl.load_factors, "-", color=C_NL, lw=1.8, label=f"nonlinear ({r.fibre_model})")
         if nl.limit_load_factor is not None:
             i = nl.limit_index
             ax.plot([x[i]], [nl.limit_load_factor], "o", color=C_NL, ms=7, mfc="white", mew=1.8)
@@ -73,17 +76,17 @@ def plot_path(r: ImperfectResult, *, length_unit=("mm", 1e-3), fig: Figure | Non
             yi = float(np.interp(nl.first_yield_load_factor, nl.load_factors[: (nl.limit_index or len(x) - 1) + 1],
                                  x[: (nl.limit_index or len(x) - 1) + 1]))
             ax.plot([yi], [nl.first_yield_load_factor], "s", color=C_YIELD, ms=6, mec=INK, mew=0.6,
-                    label="first fibre yields")
+                    label=f"first yield, {r.fibre_model} {nl.first_yield_load_factor:.4g}")
     if so is not None:
         j = int(np.argmin(np.abs(so.heights - h_ctrl))) if h_ctrl is not None else \
             int(np.argmax(np.abs(so.deflection[-1])))
         h_ctrl = so.heights[j] if h_ctrl is None else h_ctrl
         lam = so.load_factors
-        ax.plot(so.deflection[:, j] / ls, lam, "--", color=C_SO, lw=1.4, label="second-order elastic")
+        ax.plot(so.deflection[:, j] / ls, lam, "--", color=C_SO, lw=1.4, label="elastic second order")
         if so.first_yield_load_factor is not None:
             k = int(np.argmin(np.abs(lam - so.first_yield_load_factor)))
             ax.plot([so.deflection[k, j] / ls], [lam[k]], "D", color=C_SO, ms=5, mfc="white",
-                    label=f"elastic first yield {so.first_yield_load_factor:.4g}")
+                    label=f"first yield, {ELASTIC_MODEL} {so.first_yield_load_factor:.4g}")
     if math.isfinite(r.critical_load_factor):
         ax.axhline(r.critical_load_factor, color=C_CR, lw=1.0, ls=":")
         ax.annotate(f"elastic critical {r.critical_load_factor:.4g}", (0.01, r.critical_load_factor),
@@ -175,13 +178,17 @@ def plot_comparison(r: ImperfectResult, segment: int | None = None, *, fig: Figu
     if not rows:
         raise ValueError("no segment carries variable compression: nothing to compare")
     c = r.comparison[segment] if segment is not None else max(rows, key=lambda c: c.variable_force)
-    first = r.first_yield_load_factor if r.first_yield_load_factor is not None else r.fibre_first_yield_load_factor
+    so_fy, fib_fy = r.second_order_first_yield_load_factor, r.fibre_first_yield_load_factor
     items = [("elastic critical\n(eigen)", r.critical_load_factor, C_CR),
              ("Euler load of\nthe segment", c.load_factor(c.euler_force), C_CR),
-             ("Perry-Robertson\nfirst yield", c.perry_load_factor, C_YIELD),
-             ("first yield\n(this tool)", first, C_SO),
-             ("ultimate\n(this tool)", r.limit_load_factor, C_NL)]
-    fig = fig or _new_figure((7.4, 4.2))
+             ("Perry-Robertson\nfirst yield", c.perry_load_factor, C_YIELD)]
+    if so_fy is not None or fib_fy is None:
+        items.append(("first yield,\nelastic 2nd order,\nno residual\nstress", so_fy, C_SO))
+    if fib_fy is not None:
+        items.append((f"first yield,\nfibre model,\n{'with' if r.residual_stress else 'no'} residual\nstress",
+                      fib_fy, C_NL))
+    items.append(("ultimate,\nfibre model", r.limit_load_factor, C_NL))
+    fig = fig or _new_figure((8.0, 4.4))
     ax = fig.add_subplot()
     for i, (name, v, col) in enumerate(items):
         if v is None or not math.isfinite(v):
@@ -193,5 +200,8 @@ def plot_comparison(r: ImperfectResult, segment: int | None = None, *, fig: Figu
     ax.set_ylabel("load factor [-]")
     ax.axhline(1.0, color=INK, lw=0.6)
     ax.set_title(_title(r, f"Comparison, segment {c.index + 1}"))
+    fy, src = r.reported_first_yield
+    if fy is not None:
+        ax.set_xlabel(f"headline first yield: {src} ({fy:.4g})", fontsize=8)
     ax.grid(True, axis="y", lw=0.4, alpha=0.5)
     return fig

@@ -13,9 +13,19 @@ from typing import TYPE_CHECKING
 from ..model import Column
 from ..results import BucklingResult
 from . import style
-from .column import draw_band, draw_model_panel, draw_restraints, draw_stations, set_height_axis
+from .column import (
+    draw_band,
+    draw_foundations,
+    draw_model_panel,
+    draw_restraints,
+    draw_stations,
+    foundation_right,
+    set_height_axis,
+)
+from .forces import draw_force_panel, needs_force_diagram
 from .key import draw_key, key_rows, symbols_used
-from .symbols import foundation
+from .shape import mode_curve, shear_parameters
+from .style import BAND_MAX
 from .text import PlotUnits, format_load_factor
 
 if TYPE_CHECKING:
@@ -34,6 +44,11 @@ class Group:
     result: BucklingResult | None
     n: int
     extent: tuple[float, float]
+
+    @property
+    def forces(self) -> bool:
+        """Whether the axial-force diagram is drawn beside the model (:func:`fea.plot.forces.needs_force_diagram`)."""
+        return needs_force_diagram(self.column)
 
 
 def _mode_title(k: int, lam: float, narrow: bool) -> str:
@@ -54,12 +69,14 @@ def draw_mode_panel(ax: Axes, column: Column, result: BucklingResult, k: int, un
     for sp in ax.spines.values():
         sp.set_linewidth(0.6)
         sp.set_color("0.4")
-    for f in column.foundations:
-        foundation(ax, f.bottom, f.top, color="0.45", hatch_color="0.65")
+    draw_foundations(ax, column, (-(BAND_MAX + 7.0), foundation_right() + 3.0), color="0.45", hatch_color="0.65")
     draw_band(ax, column, edge=False)
     draw_stations(ax, column, tick=2.5)
     draw_restraints(ax, column, None, scale=0.8)
-    ax.plot(result.modes[k], result.heights, color=style.INK, lw=1.6, zorder=9, solid_joinstyle="round")
+    # the element's own shape functions between the nodes: higher modes are smooth curves, not polylines
+    y, w = mode_curve(result.heights, result.modes[k], result.rotations[k],
+                      shear_parameters(column, result.heights))
+    ax.plot(w, y, color=style.INK, lw=1.6, zorder=9, solid_joinstyle="round", gid="mode")
     ax.set_title(_mode_title(k + 1, float(result.load_factors[k]), narrow), fontsize=style.FS_TITLE)
     ax.set_label(f"mode {k + 1}")
 
@@ -83,9 +100,11 @@ def panel_figure(groups: list[Group], units: PlotUnits, suptitle: str | None, he
     from matplotlib.figure import Figure
 
     model_w = [(g.extent[0] + g.extent[1]) / 72.0 for g in groups]
+    forces = [g.forces for g in groups]
+    force_w = [style.FORCE_WIDTH + style.FORCE_GAP if f else 0.0 for f in forces]
     n_modes_total = sum(g.n for g in groups)
     with_modes = sum(1 for g in groups if g.n)
-    fixed = (style.LEFT_MARGIN + style.RIGHT_MARGIN + sum(model_w) + with_modes * style.MODEL_GAP
+    fixed = (style.LEFT_MARGIN + style.RIGHT_MARGIN + sum(model_w) + sum(force_w) + with_modes * style.MODEL_GAP
              + sum(max(g.n - 1, 0) * style.MODE_GAP for g in groups) + (len(groups) - 1) * style.GROUP_GAP)
     mode_w = style.MODE_WIDTH
     if n_modes_total and fixed + n_modes_total * mode_w > style.MAX_WIDTH:
@@ -95,8 +114,8 @@ def panel_figure(groups: list[Group], units: PlotUnits, suptitle: str | None, he
     shift = 0.0 if n_modes_total else max(0.0, style.SKETCH_MIN_WIDTH - fig_w) / 2
     fig_w += 2 * shift
     used: set[str] = set()
-    for g in groups:
-        used |= symbols_used(g.column, modes=g.n > 0)
+    for g, f in zip(groups, forces):
+        used |= symbols_used(g.column, modes=g.n > 0, forces=f)
     rows = key_rows(used, (fig_w - style.LEFT_MARGIN - style.RIGHT_MARGIN) * 72.0)
     top_title = style.TOP_SUPTITLE if suptitle else 0.0
     top = top_title + (style.TOP_TITLES if n_modes_total else style.TOP_BARE) + (style.TOP_HEADING if headings else 0.0)
@@ -113,7 +132,13 @@ def panel_figure(groups: list[Group], units: PlotUnits, suptitle: str | None, he
     for gi, g in enumerate(groups):
         group_left = x
         axm = fig.add_axes((x / fig_w, b, model_w[gi] / fig_w, hh))
-        x += model_w[gi] + (style.MODEL_GAP if g.n else 0.0)
+        x += model_w[gi]
+        axf = None
+        if forces[gi]:
+            x += style.FORCE_GAP
+            axf = fig.add_axes((x / fig_w, b, style.FORCE_WIDTH / fig_w, hh), sharey=axm)
+            x += style.FORCE_WIDTH
+        x += style.MODEL_GAP if g.n else 0.0
         mode_axes = []
         for k in range(g.n):
             ax = fig.add_axes((x / fig_w, b, mode_w / fig_w, hh), sharey=axm)
@@ -121,6 +146,8 @@ def panel_figure(groups: list[Group], units: PlotUnits, suptitle: str | None, he
             x += mode_w + (style.MODE_GAP if k < g.n - 1 else 0.0)
         draw_model_panel(axm, g.column, units, y_max, g.extent, height_label=(gi == 0),
                          title="model" if n_modes_total else None)
+        if axf is not None:
+            draw_force_panel(axf, g.column, units, y_max, title=bool(n_modes_total))
         for k, ax in enumerate(mode_axes):
             draw_mode_panel(ax, g.column, g.result, k, units, y_max, narrow)
         mode_axes_all += mode_axes

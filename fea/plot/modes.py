@@ -183,11 +183,12 @@ def plot_planes(planes: Sequence[tuple[str, Column, BucklingResult]], n_modes: i
     gov = int(np.argmin(lams))
     # a plane buckling under its case loads is marked on its heading (and on the title of the figure)
     below = " — λ < 1: BUCKLES UNDER THE CASE LOADS"
-    headings = [f"{g.label} axis" + (" (governs)" if i == gov and len(groups) > 1 else "")
+    headings = [plane_heading(g.label) + (" (governs)" if i == gov and len(groups) > 1 else "")
                 + (below if lams[i] < 1.0 else "") for i, g in enumerate(groups)]
     base = kw.get("title") or "Buckling modes by bending plane"
-    suptitle = (f"{base} — governing: {groups[gov].label} axis, λ = {format_load_factor(lams[gov])}"
-                + (below if lams[gov] < 1.0 else ""))
+    lam_text = f"λ = {format_load_factor(lams[gov])}"
+    suptitle = (f"{base} — governing: {plane_heading(groups[gov].label)}, {lam_text}" if len(groups) > 1
+                else f"{base} — {lam_text}") + (below if lams[gov] < 1.0 else "")
     return panel_figure(groups, units, suptitle, headings, gov)
 
 

@@ -33,23 +33,19 @@ CASE_BELOW_ONE_TITLE = "WARNING: the case as given buckles under its case loads 
 __all__ = ["plot_sweep", "plot_brace"]
 
 
-def _scale_of(key, display):
-    """(factor to divide SI by, unit label) for a key's values in display units."""
-    d = display
-    dim = key.dimension
-    if d is None:
-        return 1.0, key.si_unit
-    table = {
-        "translational stiffness": (d.force_si / d.length_si, f"{d.force}/{d.length}"),
-        "rotational stiffness": (d.force_si * d.length_si, f"{d.force}*{d.length}/rad"),
-        "length": (d.length_si, d.length),
-        "force": (d.force_si, d.force),
-        "force per length": (d.force_si / d.length_si, f"{d.force}/{d.length}"),
-        "second moment of area": (d.length_si**4 if d.length != "m" else 1e-12, "mm^4" if d.length == "m"
-                                  else f"{d.length}^4"),
-        "stress": (1e6, "MPa") if d.length in ("m", "mm", "cm") else (6894757.293168361, "ksi"),
-    }
-    return table.get(dim, (1.0, key.si_unit))
+def _scale_of(key, display, values=()):
+    """(SI value of one display unit, unit label) for a key's values: the case's display units, stiffnesses
+    in engineering units sized to the values (180 MN*m/rad)."""
+    from ..io.study_output import key_unit
+    from ..units import DisplayUnits
+
+    unit, scale = key_unit(key, values, display or DisplayUnits())
+    return scale, unit
+
+
+def _axis_label(key, unit: str) -> str:
+    """A readable axis label: "restraint 1 rotation stiffness [MN*m/rad]"."""
+    return f"{key.label} [{unit}]"
 
 
 def _caption(fig: Figure) -> None:
@@ -140,7 +136,7 @@ def _ends_note(ax, r, y, label_fmt, colour) -> None:
 
 def _sweep_1d(fig: Figure, res, display) -> None:
     r = res.ranges[0]
-    f, unit = _scale_of(r.key, display)
+    f, unit = _scale_of(r.key, display, r.values)
     m = r.finite
     x = r.values[m] / f
     ax1, ax2 = fig.subplots(1, 2)
@@ -154,16 +150,24 @@ def _sweep_1d(fig: Figure, res, display) -> None:
     _mark_below(ax1, x, g[m], low)
     _below_one_band(ax1)
     ax1.set_ylabel("lowest load factor [-]")
-    Kg = res.K_governing()
+    Kp = res.K_studied()
+    plane = res.studied_axis or res.axes[0]
     for j, s in enumerate(res.segments):
-        ax2.plot(x, Kg[m, j], lw=1.4, color=f"C{j}", label=f"segment {s + 1}")
-        _ends_note(ax2, r, Kg[:, j], lambda v: f"K = {v:.4f}", f"C{j}")
-        _mark_below(ax2, x, Kg[m, j], low, "load factor below 1" if j == 0 else None)
-    ax2.set_ylabel("effective-length factor K (governing plane) [-]")
+        ax2.plot(x, Kp[m, j], lw=1.4, color=f"C{j}", label=f"segment {s + 1}")
+        _ends_note(ax2, r, Kp[:, j], lambda v: f"K = {v:.4f}", f"C{j}")
+        _mark_below(ax2, x, Kp[m, j], low, "load factor below 1" if j == 0 else None)
+    other = res.other_governs()[m]
+    if len(res.axes) > 1 and np.any(other):
+        ax2.plot(x[other], Kp[m][other, 0], ls="none", marker="o", mfc="none", ms=5, color="0.3",
+                 label="the other plane governs here", markevery=max(1, int(np.count_nonzero(other)) // 12))
+    ax2.set_ylabel(f"effective-length factor K, {plane} plane [-]" if len(res.axes) > 1
+                   else "effective-length factor K [-]")
     for ax in (ax1, ax2):
         if r.scale == "log":
             ax.set_xscale("log")
-        ax.set_xlabel(f"{r.key.text} [{unit}]")
+        else:
+            ax.ticklabel_format(axis="x", useOffset=False)
+        ax.set_xlabel(_axis_label(r.key, unit))
         ax.grid(True, which="both", lw=0.3, alpha=0.6)
         ax.legend(fontsize=8, loc="best")
     ax1.set_title("load factor", fontsize=10)
@@ -172,23 +176,31 @@ def _sweep_1d(fig: Figure, res, display) -> None:
 
 def _sweep_2d(fig: Figure, res, display) -> None:
     r1, r2 = res.ranges
-    f1, u1 = _scale_of(r1.key, display)
-    f2, u2 = _scale_of(r2.key, display)
+    f1, u1 = _scale_of(r1.key, display, r1.values)
+    f2, u2 = _scale_of(r2.key, display, r2.values)
     m1, m2 = r1.finite, r2.finite
     X, Y = np.meshgrid(r1.values[m1] / f1, r2.values[m2] / f2, indexing="ij")
-    Kg = res.K_governing()[np.ix_(m1, m2)][..., 0]
+    Kg = res.K_studied()[np.ix_(m1, m2)][..., 0]
+    plane = res.studied_axis or res.axes[0]
     lam = res.governing[np.ix_(m1, m2)]
     ax1, ax2 = fig.subplots(1, 2)
     finite = np.isfinite(Kg)
     if np.any(finite):
         lo, hi = np.nanmin(Kg), np.nanmax(Kg)
+        if hi - lo < 5e-4 * max(abs(hi), 1.0):  # K does not change over the grid: one colour, stated
+            hi = lo + 1e-3
+            ax1.text(0.5, 0.5, f"K = {lo:.3f} over the whole grid", transform=ax1.transAxes, ha="center",
+                     fontsize=9, bbox={"fc": "white", "ec": "none"})
         levels = np.unique(np.round(np.linspace(lo, hi, 12), 3))
-        cf = ax1.contourf(X, Y, Kg, levels=24, cmap="viridis_r")
-        cs = ax1.contour(X, Y, Kg, levels=levels, colors="k", linewidths=0.6)
-        ax1.clabel(cs, fmt="%.3f", fontsize=7)
-        fig.colorbar(cf, ax=ax1, label="K [-]", shrink=0.9)
+        cf = ax1.contourf(X, Y, Kg, levels=np.linspace(lo, hi, 25), cmap="viridis_r", extend="both")
+        if levels.size > 1 and np.nanmax(Kg) - np.nanmin(Kg) >= 5e-4:
+            cs = ax1.contour(X, Y, Kg, levels=levels, colors="k", linewidths=0.6)
+            ax1.clabel(cs, fmt="%.3f", fontsize=7)
+        cb = fig.colorbar(cf, ax=ax1, label="K [-]", shrink=0.9)
+        cb.formatter.set_useOffset(False)
     _hatch_below_2d(ax1, X, Y, lam)
-    ax1.set_title(f"K of segment {res.segments[0] + 1} (governing plane)", fontsize=10)
+    ax1.set_title(f"K of segment {res.segments[0] + 1}" + (f", {plane} plane" if len(res.axes) > 1 else ""),
+                  fontsize=10)
     cf2 = ax2.contourf(X, Y, lam, levels=24, cmap="magma")
     cs2 = ax2.contour(X, Y, lam, levels=10, colors="w", linewidths=0.5)
     ax2.clabel(cs2, fmt="%.4g", fontsize=7)
@@ -198,10 +210,14 @@ def _sweep_2d(fig: Figure, res, display) -> None:
     for ax in (ax1, ax2):
         if r1.scale == "log":
             ax.set_xscale("log")
+        else:
+            ax.ticklabel_format(axis="x", useOffset=False)
         if r2.scale == "log":
             ax.set_yscale("log")
-        ax.set_xlabel(f"{r1.key.text} [{u1}]")
-        ax.set_ylabel(f"{r2.key.text} [{u2}]")
+        else:
+            ax.ticklabel_format(axis="y", useOffset=False)
+        ax.set_xlabel(_axis_label(r1.key, u1))
+        ax.set_ylabel(_axis_label(r2.key, u2))
     ends = []
     for r in (r1, r2):
         if r.key.is_spring and (np.any(r.values == 0) or np.any(np.isinf(r.values))):
@@ -221,17 +237,21 @@ def plot_brace(res, title: str = "", display=None, case_below_one: bool = False)
 
     fig = Figure(figsize=(7.5, 4.8), layout="constrained")
     ax = fig.subplots()
-    key = parse_key(f"restraint[1].{res.kind}")
-    f, unit = _scale_of(key, display)
+    soil = res.kind not in ("lateral", "rotation")
+    key = parse_key(f"foundation[1].{res.kind}" if soil else f"restraint[1].{res.kind}")
+    f, unit = _scale_of(key, display, [res.fraction_stiffness or math.nan, *res.given_stiffness])
     ratio = res.curve_load_factor / res.load_factor_rigid
-    ax.plot(res.curve_k / f, ratio, color="C0", lw=1.6, label="this column (braces varied together)")
+    what = "foundation" if soil else "braces"
+    ax.plot(res.curve_k / f, ratio, color="C0", lw=1.6, label=f"this column ({what} varied together)")
     _mark_below(ax, res.curve_k / f, ratio, _below(res.curve_load_factor))
     ax.axhline(1.0, color="0.4", lw=0.8, ls="--")
-    ax.annotate(f"rigid braces: load factor {res.load_factor_rigid:.4g}", xy=(0.01, 1.0),
+    ax.annotate(f"rigid {'foundation' if soil else 'braces'}: load factor {res.load_factor_rigid:.4g}", xy=(0.01, 1.0),
                 xycoords=("axes fraction", "data"), va="bottom", fontsize=7, color="0.3")
     marks = []
-    if res.threshold:
-        marks.append((res.threshold, f"threshold ({res.eps:.0e} of rigid)", "C3", "-"))
+    for k in sorted(set(v for v in res.given_stiffness if v > 0 and math.isfinite(v))):
+        marks.append((k, "this case", INK, "-"))
+    if res.threshold_kind == "corner" and res.threshold:
+        marks.append((res.threshold, "threshold (rigid-brace value reached)", "C3", "-"))
     if res.fraction_stiffness and res.fraction < 1:
         marks.append((res.fraction_stiffness, f"{100 * res.fraction:g}% of rigid", "C2", "-."))
     if res.kind == "lateral" and math.isfinite(res.winter_stiffness):
@@ -239,10 +259,12 @@ def plot_brace(res, title: str = "", display=None, case_below_one: bool = False)
     if res.kind == "lateral" and math.isfinite(res.aisc_stiffness):
         marks.append((res.aisc_stiffness, "AISC 360-16 App. 6 point bracing (P_r)", "C4", "--"))
     for k, label, c, ls in marks:
-        ax.axvline(k / f, color=c, ls=ls, lw=1.1, label=f"{label}: {k / f:.4g} {unit}")
+        ax.axvline(k / f, color=c, ls=ls, lw=2.0 if label == "this case" else 1.1,
+                   label=f"{label}: {k / f:.4g} {unit}")
     ax.set_xscale("log")
-    ax.set_xlabel(f"brace stiffness [{unit}]")
-    ax.set_ylabel("load factor / load factor with rigid braces [-]")
+    ax.set_xlabel(f"{'foundation ' + key.label.split(' ', 2)[2] if soil else 'brace ' + res.kind + ' stiffness'}"
+                  f" [{unit}]")
+    ax.set_ylabel(f"load factor / load factor with rigid {'foundation' if soil else 'braces'} [-]")
     lo = np.nanmin(ratio)
     one = 1.0 / res.load_factor_rigid if res.load_factor_rigid > 0 else math.inf  # load factor 1 on this axis
     top = 1.05 if not math.isfinite(one) or one <= 1.0 else one + 0.05 * max(one - lo, 0.2)
@@ -252,8 +274,8 @@ def plot_brace(res, title: str = "", display=None, case_below_one: bool = False)
     ax.grid(True, which="both", lw=0.3, alpha=0.6)
     ax.legend(fontsize=7, loc="center right" if ax.get_ylim()[0] < one else "lower right")
     stations = ", ".join(f"{s / (display.length_si if display else 1):.4g}" for s in res.stations)
-    ax.set_title(f"{res.axis or 'in-plane'}: {res.kind} brace(s) at {stations} "
-                 f"{display.length if display else 'm'}", fontsize=10)
+    ax.set_title(f"{res.axis or 'in-plane'}: " + (f"{res.kind} of the foundation(s)" if soil else
+                 f"{res.kind} brace(s) at {stations} {display.length if display else 'm'}"), fontsize=10)
     _suptitle(fig, title or "Brace stiffness", case_below_one)
     _caption(fig)
     return fig

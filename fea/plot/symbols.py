@@ -22,7 +22,10 @@ if TYPE_CHECKING:
     from matplotlib.transforms import Transform
 
 __all__ = ["pt", "xpt", "axes_height_pt", "y_to_pt", "pt_to_y", "line", "triangle", "zigzag", "square", "coil",
-           "load_arrow", "small_arrow", "side_arrow", "foundation"]
+           "load_arrow", "small_arrow", "side_arrow", "foundation", "ground", "FOUNDATION_WIDTH"]
+
+#: Width of a foundation strip where its modulus is largest [pt].
+FOUNDATION_WIDTH = 11.0
 
 
 # -- transforms ----------------------------------------------------------------------
@@ -164,11 +167,28 @@ def side_arrow(ax, x, y, tip=0.0, length=30.0, dashed=False) -> float:
     return tip + length
 
 
-def foundation(ax, bottom, top, x0=BAND_MAX + 3.0, width=9.0, color=INK, hatch_color=None) -> None:
-    """Foundation: hatched strip from ``x0`` to ``x0 + width`` pt over [bottom, top] (data)."""
-    from matplotlib.patches import Rectangle
+def foundation(ax, bottom, top, w_bottom=1.0, w_top=1.0, x0=BAND_MAX + 3.0, width=FOUNDATION_WIDTH, color=INK,
+               hatch_color=None) -> None:
+    """Foundation: hatched strip from ``x0`` over [bottom, top] (data) whose width follows the modulus.
 
-    ax.add_patch(Rectangle((x0, bottom), width, top - bottom, transform=xpt(ax), facecolor="white",
-                           edgecolor=hatch_color or color, hatch="////", lw=0.0, clip_on=False, zorder=3))
+    ``w_bottom`` and ``w_top`` are the moduli at the ends as fractions of the largest modulus drawn,
+    so a linearly varying modulus is a trapezoid (a triangle where it falls to zero), ``width`` pt
+    wide at the largest modulus.
+    """
+    from matplotlib.patches import Polygon
+
+    wb, wt = width * max(w_bottom, 0.0), width * max(w_top, 0.0)
+    ax.add_patch(Polygon([(x0, bottom), (x0 + wb, bottom), (x0 + wt, top), (x0, top)], closed=True,
+                         transform=xpt(ax), facecolor="white", edgecolor=hatch_color or color, hatch="////",
+                         lw=0.0, clip_on=False, zorder=3))
     line(ax, xpt(ax), [x0, x0], [bottom, top], color=color, lw=0.9, zorder=4)
-    line(ax, xpt(ax), [x0 + width, x0 + width], [bottom, top], color=color, lw=0.5, zorder=4)
+    line(ax, xpt(ax), [x0 + wb, x0 + wt], [bottom, top], color=color, lw=0.5, zorder=4)
+    line(ax, xpt(ax), [x0, x0 + wb], [bottom, bottom], color=color, lw=0.5, zorder=4)
+
+
+def ground(ax, y, left, right, color=INK) -> None:
+    """Ground line: a horizontal line at height ``y`` (data) from ``left`` to ``right`` pt, hatched below."""
+    tr = pt(ax, 0.0, y)
+    line(ax, tr, [left, right], [0.0, 0.0], color=color, lw=1.0, zorder=4, gid="ground")
+    for x in np.arange(left + 3.0, right + 0.1, 3.5):
+        line(ax, tr, [x, x - 3.0], [0.0, -3.0], color=color, lw=0.5, zorder=4)

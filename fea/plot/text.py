@@ -13,8 +13,8 @@ from dataclasses import dataclass
 from ..errors import ModelError
 from ..model import Column, Restraint
 
-__all__ = ["format_number", "format_load_factor", "text_width", "text_height", "PlotUnits", "inertia_texts",
-           "found_text", "load_text", "dist_text", "lean_text", "spring_text"]
+__all__ = ["format_number", "format_load_factor", "text_width", "text_height", "PlotUnits", "stiffness_unit",
+           "stiffness_text", "inertia_texts", "found_text", "load_text", "dist_text", "lean_text", "spring_text"]
 
 _SUPERSCRIPT = str.maketrans("-0123456789", "⁻⁰¹²³⁴⁵⁶⁷⁸⁹")
 
@@ -105,18 +105,60 @@ class PlotUnits:
         return self._text(p, self.force_si, self.force)
 
     def q(self, v: float) -> str:
-        """A force per length (a line load or a lateral spring stiffness) with its unit."""
+        """A force per length (a line load) with its unit."""
         return self._text(v, self.force_si / self.length_si, f"{self.force}/{self.length}")
 
-    k_lat = q
+    def k_lat(self, v: float) -> str:
+        """A lateral spring stiffness in engineering units (``"50 MN/m"``), see :func:`stiffness_text`."""
+        return stiffness_text(v, "lateral", self)
 
     def k_rot(self, v: float) -> str:
-        """A rotational spring stiffness with its unit."""
-        return self._text(v, self.force_si * self.length_si, f"{self.force}{self.length}/rad")
+        """A rotational spring stiffness in engineering units (``"180 MN*m/rad"``)."""
+        return stiffness_text(v, "rotational", self)
 
     def k_found(self, v: float) -> str:
-        """A foundation modulus (force per length per length of column) with its unit."""
-        return self._text(v, self.force_si / self.length_si**2, f"{self.force}/{self.length}²")
+        """A foundation modulus (force per length per length of column) in engineering units (``"9 MN/m²"``)."""
+        return stiffness_text(v, "modulus", self)
+
+
+#: Metric force units and the prefixed units a stiffness may be written in, with their SI values [N].
+_METRIC_FORCES = ("N", "kN", "MN")
+_PREFIXED_FORCES = (("N", 1.0), ("kN", 1e3), ("MN", 1e6), ("GN", 1e9))
+#: Stiffness kinds: power of the length in the unit (force * length^p), and its form.
+_STIFFNESS_KINDS = {"lateral": (-1, "{F}/{L}"), "rotational": (1, "{F}*{L}/rad"), "modulus": (-2, "{F}/{L}²")}
+
+
+def stiffness_unit(value_si: float, kind: str, units: PlotUnits) -> tuple[str, float]:
+    """The unit a stiffness of about ``value_si`` is written in: (label, SI value of one unit).
+
+    Springs and foundation moduli span many orders of magnitude, so their force unit takes the
+    prefix (N, kN, MN, GN) that puts the number between 1 and 1000 in the display length unit:
+    180e6 N*m/rad with lengths in m is ``("MN*m/rad", 1e6)``.  A non-metric display force (lbf,
+    kip, tf) is kept as it is.
+
+    Parameters
+    ----------
+    value_si : stiffness [N/m, N*m/rad or N/m^2]
+    kind : ``"lateral"`` (N/m), ``"rotational"`` (N*m/rad) or ``"modulus"`` (N/m^2, a foundation)
+    units : the figure's display units
+    """
+    power, form = _STIFFNESS_KINDS[kind]
+    length_si = units.length_si**power
+    force, force_si = units.force, units.force_si
+    if units.force in _METRIC_FORCES:
+        a = abs(float(value_si)) / length_si   # in N * (display length)^power
+        force, force_si = _PREFIXED_FORCES[0]
+        for name, f in _PREFIXED_FORCES:
+            if a >= f * (1.0 - 5e-5):   # 999.97 kN would print as 1000 kN: write 1 MN
+                force, force_si = name, f
+    return form.format(F=force, L=units.length), force_si * length_si
+
+
+def stiffness_text(value_si: float, kind: str, units: PlotUnits) -> str:
+    """A stiffness with its unit in engineering form: ``stiffness_text(180e6, "rotational", kN_m) ==
+    "180 MN*m/rad"`` (see :func:`stiffness_unit`)."""
+    label, si = stiffness_unit(value_si, kind, units)
+    return f"{format_number(value_si / si)} {label}"
 
 
 def inertia_texts(column: Column) -> list[tuple[float, str]]:
@@ -136,14 +178,15 @@ def found_text(f, units: PlotUnits) -> str:
     """Label of a foundation: its modulus (bottom→top when it varies)."""
     if f.k_top is None or f.k_top == f.k_bottom:
         k = units.k_found(f.k_bottom)
-    else:
-        k = f"{format_number(f.k_bottom / (units.force_si / units.length_si**2))}→{units.k_found(f.k_top_value)}"
+    else:   # one unit for both ends, chosen by the larger
+        label, si = stiffness_unit(max(abs(f.k_bottom), abs(f.k_top_value)), "modulus", units)
+        k = f"{format_number(f.k_bottom / si)}→{format_number(f.k_top_value / si)} {label}"
     return f"foundation\n{k}"
 
 
 def load_text(p, units: PlotUnits) -> str:
-    """Label of a point load."""
-    return units.F(p.P) + (" perm." if p.permanent else "") + (" (tension)" if p.P < 0 else "")
+    """Label of a point load: its value with its sign (a negative load acts upward, as its arrow shows)."""
+    return units.F(p.P) + (" perm." if p.permanent else "")
 
 
 def dist_text(d, units: PlotUnits) -> str:

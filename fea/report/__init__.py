@@ -30,12 +30,11 @@ Public API
 
 from __future__ import annotations
 
-import datetime
 from typing import Any, Iterable, Mapping
 
 from ..results import CaseResults
-from .document import Part, T
-from .front import brief_blocks, caution, identification_rows, running_head, title_of
+from .document import Para, Part, Pre, T
+from .front import brief_blocks, caution, identification_rows, record_fields, report_date, running_head, title_of
 from .parts import OptionalPart, report_parts
 
 __all__ = ["build_report", "build_markdown", "report_figures", "OptionalPart"]
@@ -65,8 +64,22 @@ def report_figures(res: CaseResults, json_dict: dict | None = None) -> dict[str,
     return out
 
 
+def _appendix(res: CaseResults, case_text: str) -> Part:
+    """The case file itself, verbatim, as the last part of the record."""
+    import hashlib
+
+    if hashlib.sha256(case_text.encode("utf-8")).hexdigest() != res.case.sha256 and \
+            hashlib.sha256(("\ufeff" + case_text).encode("utf-8")).hexdigest() != res.case.sha256:
+        raise ValueError("`case_text` is not the text of this case (its SHA-256 differs from the case's)")
+    return Part("appendix-case", "Appendix: the case file", [
+        Para(("The case file as it was read, line for line; its SHA-256 hash is the one given at the head of the "
+              "record.",)),
+        Pre(T(case_text, "file:case"))])
+
+
 def _prepare(res: CaseResults, json_dict: dict | None, figures: dict | None, warnings: Iterable[str],
-             date: str | None, optional: Mapping[str, OptionalPart]) -> tuple[T, list, list, T, list[Part], str]:
+             date: str | None, optional: Mapping[str, OptionalPart], record: Mapping[str, str] | None = None,
+             case_text: str | None = None) -> tuple[T, list, list, T, list[Part], str]:
     if json_dict is not None and json_dict.get("case_sha256") != res.case.sha256:
         raise ValueError("`json_dict` is not the result of this case (its case_sha256 differs)")
     from .svg import figure_svg
@@ -77,13 +90,16 @@ def _prepare(res: CaseResults, json_dict: dict | None, figures: dict | None, war
     mode_figs = [(figs["modes"], _MODES_CAPTION)] if "modes" in figs else []
     parts = report_parts(res, res.case.display, figs.get("sketch"), mode_figs, all_warnings, optional,
                          figures=figures is None or bool(figs))
-    date = date or datetime.date.today().isoformat()
-    return (title_of(res), identification_rows(res, date), brief_blocks(res, parts), caution(), parts,
-            running_head(res))
+    ident = identification_rows(res, report_date(res, date), record_fields(res, record))
+    brief = brief_blocks(res, parts)
+    if case_text is not None:
+        parts.append(_appendix(res, case_text))
+    return title_of(res), ident, brief, caution(), parts, running_head(res)
 
 
 def build_report(res: CaseResults, json_dict: dict | None = None, figures: dict | None = None, *,
-                 parts: Mapping[str, OptionalPart], warnings: Iterable[str] = (), date: str | None = None) -> str:
+                 parts: Mapping[str, OptionalPart], warnings: Iterable[str] = (), date: str | None = None,
+                 record: Mapping[str, str] | None = None, case_text: str | None = None) -> str:
     """The calculation record of a run as one self-contained HTML page.
 
     Parameters
@@ -95,7 +111,11 @@ def build_report(res: CaseResults, json_dict: dict | None = None, figures: dict 
         report.  None draws the defaults (:func:`report_figures`); ``{}`` gives a report without figures.
     warnings : warnings raised while the case was run (shown verbatim)
     parts : the report part of each optional analysis, by name, in report order (``fea.pipeline.REPORT_PARTS``)
-    date : the date printed on the record (ISO; today when None)
+    date : the date printed on the record (ISO); when None, the case's ``[record] date``, else today
+    record : identification fields (``project``, ``job``, ``prepared_by``, ``checked_by``, ``revision``) that
+        override the case's ``[record]`` table (the command's options)
+    case_text : the text of the case file, printed verbatim in an appendix (its SHA-256 must be the case's);
+        None leaves the appendix out
 
     Returns
     -------
@@ -105,20 +125,25 @@ def build_report(res: CaseResults, json_dict: dict | None = None, figures: dict 
     Raises
     ------
     ValueError
-        ``json_dict`` belongs to another case file, or the run holds an analysis the report has no part for.
+        ``json_dict`` or ``case_text`` belongs to another case file, the run holds an analysis the report has
+        no part for, or ``record`` names an unknown field.
     """
     from .html import render_html
 
-    title, ident, brief, caution_text, blocks, running = _prepare(res, json_dict, figures, warnings, date, parts)
+    title, ident, brief, caution_text, blocks, running = _prepare(res, json_dict, figures, warnings, date, parts,
+                                                                  record, case_text)
     return render_html(title, ident, brief, caution_text, blocks, running)
 
 
 def build_markdown(res: CaseResults, json_dict: dict | None = None, figures: dict | None = None, *,
                    parts: Mapping[str, OptionalPart], warnings: Iterable[str] = (), date: str | None = None,
-                   figure_files: dict[str, str] | None = None) -> str:
+                   figure_files: dict[str, str] | None = None, record: Mapping[str, str] | None = None,
+                   case_text: str | None = None) -> str:
     """The same record as Markdown; ``figure_files`` maps figure names (``"sketch"``, ``"modes"``, ...)
-    to the relative paths of image files written beside it (figures without a file are named only)."""
+    to the relative paths of image files written beside it (figures without a file are named only); the other
+    parameters are those of :func:`build_report`."""
     from .markdown import render_markdown
 
-    title, ident, brief, caution_text, blocks, _ = _prepare(res, json_dict, figures, warnings, date, parts)
+    title, ident, brief, caution_text, blocks, _ = _prepare(res, json_dict, figures, warnings, date, parts,
+                                                            record, case_text)
     return render_markdown(title, ident, brief, caution_text, blocks, figure_files)

@@ -2,6 +2,8 @@
 
 from __future__ import annotations
 
+import math
+
 from ..model.ideal_supports import IdealK, ideal_case, ideal_cases
 from ..results import BucklingResult, CaseResults, SegmentBuckling
 from ..units import DisplayUnits
@@ -23,6 +25,14 @@ def segment_ideal(res: CaseResults, b: BucklingResult, sg: SegmentBuckling) -> I
     return ideal_case(res.case.column(b.axis), sg.index)
 
 
+def _decimals(K: float | None, decimals: int = 3) -> int:
+    """Significant figures that show ``K`` with ``decimals`` decimals, as the terminal summary prints it
+    (:func:`fea.io.summary.summary_lines`: ``f"{K:.3f}"``)."""
+    if K is None or not math.isfinite(K) or K == 0:
+        return decimals
+    return max(1, decimals + int(math.floor(math.log10(abs(K)))) + 1)
+
+
 def _segment_row(res: CaseResults, sg: SegmentBuckling, j: int, p: str, u: DisplayUnits,
                  ideal: IdealK | None, with_ideal: bool) -> tuple:
     """One segment of the lowest mode; ``p`` is its JSON path; ``with_ideal``: the plane shows a recommended K."""
@@ -38,7 +48,7 @@ def _segment_row(res: CaseResults, sg: SegmentBuckling, j: int, p: str, u: Displ
             (q(sg.bottom, f"{p}/bottom_m", u.length), " – ", q(sg.top, f"{p}/top_m", u.length)),
             (q(sg.axial_force, f"{p}/axial_force_N", u.force),),
             (q(sg.critical_axial_force, f"{p}/critical_axial_force_N", u.force),),
-            (q(sg.effective_length_factor, f"{p}/effective_length_factor", "", 3),),
+            (q(sg.effective_length_factor, f"{p}/effective_length_factor", "", _decimals(sg.effective_length_factor)),),
             *recommended,
             (q(sg.effective_length, f"{p}/effective_length_m", u.length),),
             (q(sg.energy_share, f"{p}/energy_share", "%", 3),),

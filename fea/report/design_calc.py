@@ -10,7 +10,7 @@ Values are shown rounded; the tool carried the arithmetic at full precision.
 
 from __future__ import annotations
 
-from .design_lines import COMPRESSION, REDUCTION_SYMBOL, SLENDERNESS_SYMBOL, tension_lines
+from .design_lines import COMPRESSION, REDUCTION_SYMBOL, SLENDERNESS_SYMBOL, summary_notation, tension_lines
 from .design_steps import FORMULA_CONSTANTS, N_CR_SYMBOL, Check
 from .document import Bullets, Calc, Heading, Note, Para, Q, T, Table, q, unit_label
 
@@ -71,13 +71,19 @@ def _summary_table(part: dict, u, gov: int | None) -> Table:
                      (k.force("N_Ed_N"),), (k.force("resistance_N"),), (k.num("utilisation"),),
                      ("passes" if c["passed"] else "FAILS",), ("governs" if n == gov else "",)))
     f = unit_label(u.force)
+    method = next((c.get("labels", {}).get("method") for c in checks if (c.get("labels") or {}).get("method")), None)
+    force_words, force, res_words, res = summary_notation(part.get("standard", ""), method)
+    tension = any(c["kind"] == "tension" for c in checks)
     return Table((("Segment",), ("Axis",), ("Clause",), ("Slenderness",), ("Reduction",),
-                  ("Design force [", f, "]"), ("Resistance [", f, "]"), ("Utilisation",), ("Result",), ("",)),
+                  (force_words, " ", *force, " [", f, "]"), (res_words, " ", *res, " [", f, "]"), ("Utilisation",),
+                  ("Result",), ("Governing",)),
                  tuple(rows), numeric=(5, 6, 7), strong=() if gov is None else (gov,),
-                 caption=("Design force: the largest in the segment at the case loads × the load factor ",
-                          q(part.get("load_factor"), "json:design/load_factor", "", 4),
-                          "; resistance: the design resistance of the clause; utilisation: their ratio. "
-                          "The governing check is set in bold; each check is written out below.",))
+                 caption=(*force, ": the largest force in the segment at the case loads × the load factor ",
+                          q(part.get("load_factor"), "json:design/load_factor", "", 4), "; ", *res,
+                          ": the resistance of the clause",
+                          " (in tension, the tension resistance of its clause)" if tension else "",
+                          "; utilisation: their ratio. The governing check is set in bold and marked in the last "
+                          "column; each check is written out below.",))
 
 
 def design_blocks(part: dict, u) -> list:

@@ -15,7 +15,8 @@ from ..design.standards.record import EQUIVALENT_SLENDERNESS
 from .design_steps import N_CR_SYMBOL, Check, Name, condition, printed, step_line, sym, with_unit
 from .document import CalcLine, Em, Q, T
 
-__all__ = ["COMPRESSION", "tension_lines", "SLENDERNESS_SYMBOL", "REDUCTION_SYMBOL"]
+__all__ = ["COMPRESSION", "tension_lines", "SLENDERNESS_SYMBOL", "REDUCTION_SYMBOL", "SUMMARY_NOTATION",
+           "summary_notation"]
 
 LAMBDA_BAR = (Em("λ\u0304"),)
 N_ED = sym("N", "Ed")
@@ -30,6 +31,27 @@ REDUCTION_SYMBOL = {"EN 1993-1-1": (Em("χ"),), "AISC 360": (*sym("F", "cr"), "/
                     "AS 4100": sym("α", "c"), "BS 5950-1": (*sym("p", "c"), "/", *sym("p", "y")),
                     "Perry-Robertson": (Em("σ"), "/", *FY), "Rankine-Gordon": (Em("σ"), "/", *sym("f", "c")),
                     "working-stress": (*sym("σ", "a"), "/", *sym("σ", "allow"))}
+
+#: Each standard's own words and symbols for the design force and the design resistance of a compression
+#: check, as the summary of the checks heads its columns: (force words, force symbol, resistance words,
+#: resistance symbol).  AISC 360 by its method (LRFD, ASD).
+SUMMARY_NOTATION: dict[str, tuple[str, tuple, str, tuple]] = {
+    "EN 1993-1-1": ("Design force", sym("N", "Ed"), "Design resistance", sym("N", "b,Rd")),
+    "AISC 360 LRFD": ("Required strength", sym("P", "u"), "Design strength", (*sym("φ", "c"), " ", *sym("P", "n"))),
+    "AISC 360 ASD": ("Required strength", sym("P", "a"), "Allowable strength",
+                     (*sym("P", "n"), " / ", *sym("Ω", "c"))),
+    "AS 4100": ("Design axial force", (Em("N*"),), "Design member capacity", (Em("φ"), " ", *sym("N", "c"))),
+    "BS 5950-1": ("Applied compression", sym("F", "c"), "Compression resistance", sym("P", "c")),
+    "Perry-Robertson": ("Axial load", (Em("N"),), "Allowable load", sym("N", "R")),
+    "Rankine-Gordon": ("Axial load", (Em("N"),), "Allowable load", sym("N", "R")),
+    "working-stress": ("Axial load at the case loads", (Em("N"),), "Allowable load", sym("N", "R")),
+}
+
+
+def summary_notation(standard: str, method: str | None = None) -> tuple[str, tuple, str, tuple]:
+    """The words and symbols of :data:`SUMMARY_NOTATION` for ``standard`` (and its ``method``)."""
+    key = f"{standard} {method or 'LRFD'}" if standard == "AISC 360" else standard
+    return SUMMARY_NOTATION.get(key, ("Design force", (Em("N"),), "Resistance", sym("N", "R")))
 
 
 def _gamma(m: str) -> tuple:

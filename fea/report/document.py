@@ -18,7 +18,14 @@ Sources
 ``run:warnings/0``
     a warning raised while the case was run.
 ``report:date``
-    the date the report was written.
+    the date printed on the record when it is not the case's ``[record] date``
+    (the ``--date`` option, or the day the report was written).
+``report:project`` (``job``, ``prepared_by``, ``checked_by``, ``revision``)
+    an identification field given to the report (the command's options); a field
+    of the case's ``[record]`` table is ``case:extras/record/project``.
+``file:case``
+    the text of the case file, verbatim (its SHA-256 is the one in the
+    identification rows), printed in the appendix.
 ``name:M1``
     a published name or symbol that contains digits, printed as it is (the hash
     algorithm, the subscripts of the partial factors of EN 1993-1-1 6.1).
@@ -36,7 +43,7 @@ from typing import Union
 from ..units import to_display
 
 __all__ = ["Q", "T", "Em", "Sub", "Sup", "Inline", "Heading", "Para", "Table", "Figure", "Bullets", "Note",
-           "CalcLine", "Calc", "Part", "fmt_number", "convert", "unit_label", "q"]
+           "CalcLine", "Calc", "Pre", "Part", "fmt_number", "convert", "unit_label", "q"]
 
 _SUP = str.maketrans("0123456789-", "⁰¹²³⁴⁵⁶⁷⁸⁹⁻")
 MINUS = "\u2212"
@@ -224,6 +231,13 @@ class Calc:
     lines: tuple
     notes: tuple = ()
     highlight: bool = False
+
+
+@dataclass(frozen=True)
+class Pre:
+    """Preformatted text shown verbatim, line for line, in a monospaced face (the case file in the appendix)."""
+
+    text: T
 
 
 @dataclass(frozen=True)

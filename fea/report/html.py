@@ -4,7 +4,7 @@ from __future__ import annotations
 
 import html
 
-from .document import NOTE_LABELS, Bullets, Calc, Em, Figure, Heading, Note, Para, Part, Q, Sub, Sup, T, Table
+from .document import NOTE_LABELS, Bullets, Calc, Em, Figure, Heading, Note, Para, Part, Pre, Q, Sub, Sup, T, Table
 
 __all__ = ["render_html", "CSP"]
 
@@ -78,6 +78,12 @@ table.calc td.eq { padding: 1pt 5pt; }
 table.calc tr.key td { font-weight: 700; }
 table.calc .rem { font-size: 8.5pt; color: #333; font-style: italic; font-weight: 400; }
 p.cnote { font-size: 8.5pt; color: #333; margin: 2pt 0 0; }
+pre.verbatim { font: 8pt/1.35 "DejaVu Sans Mono", "Liberation Mono", monospace; white-space: pre-wrap;
+               overflow-wrap: anywhere; border-top: 0.6pt solid #111; border-bottom: 0.6pt solid #111;
+               padding: 4pt 0; margin: 4pt 0 8pt; }
+section.appendix h2 { counter-increment: none; }
+section.appendix h2::before { content: none; }
+section.appendix h3::before { content: none; }
 footer.end { margin-top: 18pt; border-top: 0.8pt solid #111; padding-top: 4pt; font-size: 8.5pt; color: #333; }
 @page { margin: 18mm 15mm 17mm 15mm;
         @bottom-right { content: "page " counter(page) " of " counter(pages);
@@ -169,6 +175,8 @@ def _block(b) -> str:
                        + "</tr>" for r, row in enumerate(b.rows))
         note = f'<p class="tnote">{inline(b.caption)}</p>' if b.caption else ""
         return f'<div class="table"><table><thead><tr>{head}</tr></thead><tbody>{body}</tbody></table>{note}</div>'
+    if isinstance(b, Pre):
+        return f'<pre class="verbatim">{inline((b.text,))}</pre>'
     if isinstance(b, Calc):
         cls = "calc gov" if b.highlight else "calc"
         tag = ' <span class="tag">governing</span>' if b.highlight else ""
@@ -199,7 +207,7 @@ def render_html(title: T, ident: list[tuple], brief: list, caution: T, parts: li
     toc = "".join(f'<li><a href="#{_attr(p.key)}">{html.escape(p.title)}</a></li>' for p in parts)
     sections = []
     for n, p in enumerate(parts):
-        cls = "part first" if n == 0 else "part"
+        cls = "part first" if n == 0 else "part appendix" if p.key.startswith("appendix") else "part"
         body = "\n".join(_block(b) for b in p.blocks)
         sections.append(f'<section class="{cls}" id="{_attr(p.key)}">\n<h2>{html.escape(p.title)}</h2>\n'
                         f'{body}\n</section>')

@@ -8,6 +8,7 @@ from __future__ import annotations
 
 from typing import TYPE_CHECKING, Any
 
+from ..io.imperfect_output import status_words
 from ..units import DisplayUnits
 from ..util.numbers import finite_or_none as _num
 from .blocks import Field, quantity_table, record_table
@@ -25,14 +26,15 @@ __all__ = ["imperfect_blocks", "imperfect_figures", "IMPERFECT_LABELS"]
 IMPERFECT_LABELS = {
     # imperfect column, per plane
     "analysis": "Analyses run",
-    "status": "How the analysis ended",
+    "status_text": "How the analysis ended",
     "success": "Completed",
     "message": "Solver message",
     "critical_load_factor": "Elastic critical load factor",
-    "first_yield_load_factor": "First-yield load factor",
+    "first_yield_load_factor": "First-yield load factor (model named below)",
     "first_yield_source": "First yield taken from",
-    "second_order_first_yield_load_factor": "First-yield load factor, second-order elastic analysis",
-    "fibre_first_yield_load_factor": "First-yield load factor, nonlinear fibre analysis",
+    "first_yield_remark": "First yield above the ultimate load",
+    "second_order_first_yield_load_factor": "First-yield load factor, elastic second order (no residual stress)",
+    "fibre_first_yield_load_factor": "First-yield load factor, nonlinear fibre model",
     "limit_load_factor": "Ultimate (limit) load factor",
     # the initial bow
     "shape": "Shape of the bow",
@@ -45,7 +47,7 @@ IMPERFECT_LABELS = {
     "critical_force_N": "Elastic critical force",
     "euler_force_N": "Euler force (segment alone, pinned ends)",
     "perry_force_N": "Perry-Robertson first-yield force",
-    "first_yield_force_N": "First-yield force",
+    "first_yield_force_N": "First-yield force (model named above)",
     "limit_force_N": "Ultimate (limit) force",
     "euler_load_factor": "Euler load factor",
     "perry_load_factor": "Perry-Robertson first-yield load factor",
@@ -73,12 +75,16 @@ _FACTOR_COLUMNS = ("segment", "critical_load_factor", "euler_load_factor", "perr
 
 def _plane_fields(r: "ImperfectResult") -> list[Field]:
     fy, source = r.reported_first_yield
-    return [("analysis", r.analysis), ("status", r.status), ("success", r.success), ("message", r.message),
-            ("critical_load_factor", _num(r.critical_load_factor)), ("first_yield_load_factor", _num(fy)),
-            ("first_yield_source", source),
-            ("second_order_first_yield_load_factor", _num(r.first_yield_load_factor)),
-            ("fibre_first_yield_load_factor", _num(r.fibre_first_yield_load_factor)),
-            ("limit_load_factor", _num(r.limit_load_factor))]
+    fields: list[Field] = [
+        ("analysis", r.analysis), ("status_text", status_words(r.status)), ("success", r.success),
+        ("message", r.message), ("critical_load_factor", _num(r.critical_load_factor)),
+        ("first_yield_load_factor", _num(fy)), ("first_yield_source", source),
+        ("second_order_first_yield_load_factor", _num(r.second_order_first_yield_load_factor)),
+        ("fibre_first_yield_load_factor", _num(r.fibre_first_yield_load_factor)),
+        ("limit_load_factor", _num(r.limit_load_factor))]
+    if r.first_yield_remark:
+        fields.append(("first_yield_remark", r.first_yield_remark))
+    return fields
 
 
 def _bow_fields(r: "ImperfectResult") -> list[Field]:
@@ -112,7 +118,7 @@ def _path_fields(nl: "NonlinearPath") -> list[Field]:
             ("first_yield_offset_m", _num(nl.first_yield_offset)), ("control_height_m", nl.control_height),
             ("n_elements", nl.n_elements), ("n_fibres", nl.n_fibres), ("n_steps", nl.n_steps),
             ("n_iter", nl.n_iter), ("max_residual", _num(nl.max_residual)), ("tolerance", nl.tolerance),
-            ("status", nl.status), ("success", nl.success), ("message", nl.message)]
+            ("status_text", status_words(nl.status)), ("success", nl.success), ("message", nl.message)]
 
 
 def _plane_blocks(r: "ImperfectResult", p: str, u: DisplayUnits) -> list:
@@ -140,7 +146,9 @@ def imperfect_blocks(results: dict[str, "ImperfectResult"], u: DisplayUnits) -> 
     """The imperfect-column part: an introduction, then every plane analysed (in the JSON's order)."""
     blocks: list = [Para(("Second-order analysis of the column with its initial bow, as set out in the case: the "
                           "elastic critical load, first yield and the ultimate (limit) load, compared per segment "
-                          "with the Euler load and the Perry-Robertson first-yield load.",))]
+                          "with the Euler load and the Perry-Robertson first-yield load.  The headline first yield "
+                          "names its model: with residual stresses it is the fibre model's (the elastic "
+                          "second-order model has none, so its first yield can lie above the ultimate load).",))]
     for i, r in enumerate(results.values()):
         blocks += _plane_blocks(r, f"imperfect/{i}", u)
     return blocks
@@ -156,5 +164,6 @@ def imperfect_figures(results: dict[str, "ImperfectResult"], u: DisplayUnits) ->
                     f"Load factor against lateral deflection at the control height, {axis} axis."))
         if any(c.variable_force > 0 for c in r.comparison):
             out.append((plots.plot_comparison(r), f"Load factors compared, {axis} axis: elastic critical, "
-                                                  "Euler, Perry-Robertson, first yield and ultimate."))
+                                                  "Euler, Perry-Robertson, first yield (each with its model) and "
+                                                  "ultimate."))
     return out

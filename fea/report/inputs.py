@@ -10,6 +10,8 @@ from ..model.case import Case
 from ..units import DisplayUnits
 from .blocks import hdr, spring
 from .document import Em, Figure, Heading, Part, Q, Sub, T, Table, q, unit_label
+from .input_actions import imperfection_blocks, lateral_blocks, load_action_blocks, section_blocks
+from .input_specs import design_input_blocks, study_input_blocks
 
 __all__ = ["inputs_part"]
 
@@ -130,7 +132,8 @@ def _loads(case: Case, u: DisplayUnits) -> list:
     rows: list[tuple] = []
     for j, ld in enumerate(col0.point_loads):
         b = f"case:planes/0/1/point_loads/{j}"
-        rows.append((("point",), (q(ld.at, f"{b}/at", u.length),), ("—",), (q(ld.P, f"{b}/P", u.force),), ("—",),
+        kind = "joint load from member forces" if ld.member_forces else "point"
+        rows.append(((kind,), (q(ld.at, f"{b}/at", u.length),), ("—",), (q(ld.P, f"{b}/P", u.force),), ("—",),
                      (_part_of(ld.permanent, f"{b}/permanent"),)))
     for j, dl in enumerate(col0.distributed_loads):
         b = f"case:planes/0/1/distributed_loads/{j}"
@@ -142,7 +145,10 @@ def _loads(case: Case, u: DisplayUnits) -> list:
             Table((("Kind",), hdr("At / from", u.length), hdr("To", u.length), hdr("P", u.force),
                    hdr("q", u.line_load), ("Part",)), tuple(rows), numeric=(1, 2, 3, 4),
                   caption=("Variable loads are multiplied by the load factor; permanent loads are held at "
-                           "their value. All axial load is carried down to the base.",))]
+                           "their value. All axial load is carried down to the base."
+                           + (" The axial force of each segment is given in the case file (member forces); the "
+                              "joint loads are their differences, N of the segment below minus N of the segment "
+                              "above." if col0.member_forces_given else ""),))]
 
 
 def _foundations(case: Case, u: DisplayUnits) -> list:
@@ -177,10 +183,13 @@ def _leaning(case: Case, u: DisplayUnits) -> list:
                            Em("−P / h"), " at its station; it adds no axial force here."))]
 
 
-def inputs_part(case: Case, u: DisplayUnits, sketch: str | None) -> Part:
-    """The inputs as read from the case file, and the sketch of the column when one is given."""
-    blocks = [*_material(case, u), *_segments(case, u), *_restraints(case, u), *_loads(case, u),
-              *_foundations(case, u), *_leaning(case, u)]
+def inputs_part(case: Case, u: DisplayUnits, sketch: str | None, design: dict | None = None) -> Part:
+    """The inputs as read from the case file, and the sketch of the column when one is given (``design``: the
+    JSON design part of the run, for the parameters each check applied)."""
+    blocks = [*_material(case, u), *_segments(case, u), *section_blocks(case, u), *_restraints(case, u),
+              *_loads(case, u), *load_action_blocks(case, u), *lateral_blocks(case, u), *_foundations(case, u),
+              *_leaning(case, u), *imperfection_blocks(case, u), *design_input_blocks(case, u, design),
+              *study_input_blocks(case, u)]
     if sketch:
         blocks.append(Figure(sketch, ("Sketch of the column as analysed, per bending plane (not to scale across; "
                                       "heights to scale). Segment widths show the relative second moment of area.",),

@@ -2,7 +2,9 @@
 
 from __future__ import annotations
 
-from .document import NOTE_LABELS, Bullets, Calc, Em, Figure, Heading, Note, Para, Part, Q, Sub, Sup, T, Table
+import re
+
+from .document import NOTE_LABELS, Bullets, Calc, Em, Figure, Heading, Note, Para, Part, Pre, Q, Sub, Sup, T, Table
 
 __all__ = ["render_markdown"]
 
@@ -53,6 +55,8 @@ def _block(b, figure_files: dict[str, str], counter: list[int], numbers: list[in
         if b.name in figure_files:
             return f"![Figure {counter[0]}]({figure_files[b.name]})\n\n{cap}"
         return f"{cap} (drawn in the HTML report)"
+    if isinstance(b, Pre):
+        return _fenced(b.text.text)
     if isinstance(b, Calc):
         numbers[1] += 1
         head = f"### {numbers[0]}.{numbers[1]} {inline(b.title)}" + (" (governing)" if b.highlight else "")
@@ -79,6 +83,14 @@ def _block(b, figure_files: dict[str, str], counter: list[int], numbers: list[in
     raise TypeError(f"unknown report block {type(b).__name__}")
 
 
+def _fenced(text: str) -> str:
+    """``text`` as a fenced code block whose fence is longer than any run of backticks in it, so that no line
+    of the text can close it (CommonMark 4.5); the text is shown as it is."""
+    longest = max((len(m) for m in re.findall(r"`+", text)), default=0)
+    fence = "`" * max(3, longest + 1)
+    return f"{fence}text\n{text.rstrip(chr(10))}\n{fence}"
+
+
 def render_markdown(title: T, ident: list[tuple], brief: list, caution: T, parts: list[Part],
                     figure_files: dict[str, str] | None = None) -> str:
     """Markdown of the report; figures are linked from ``figure_files`` (name -> relative path) when given."""
@@ -89,9 +101,12 @@ def render_markdown(title: T, ident: list[tuple], brief: list, caution: T, parts
     for b in brief:
         out += [_block(b, files, counter, [0, 0]), ""]
     out += [f"> **Caution.** {inline((caution,))}", ""]
-    for n, p in enumerate(parts, start=1):
+    n = 0
+    for p in parts:
+        appendix = p.key.startswith("appendix")
+        n += not appendix
         numbers = [n, 0]
-        out += [f"## {n} {_esc(p.title)}", ""]
+        out += [f"## {_esc(p.title)}" if appendix else f"## {n} {_esc(p.title)}", ""]
         for b in p.blocks:
             out += [_block(b, files, counter, numbers), ""]
     out.append("*End of calculation record.*")

@@ -36,15 +36,19 @@ def _mesh(res: CaseResults) -> list:
         rows.append(((T(b.axis, f"{s}/axis"),), (Q(b.n_elements, f"{s}/n_elements", "", 6),),
                      (q(b.tolerance, f"{s}/tolerance", "", 2),),
                      (q(b.discretisation_error, f"{s}/discretisation_error", "", 2),),
+                     tuple(x for k, e in enumerate(b.mode_errors[1:], start=1)
+                           for x in ((", " if k > 1 else ""), q(float(e), f"{s}/mode_errors/{k}", "", 2))) or ("—",),
                      (yes(b.converged, f"{s}/converged"),), (T(b.solver, f"{s}/solver"),)))
     return [
         Heading(3, "Mesh and convergence"),
         Para(("A node is placed at every station (segment joints, restraints, load points, ends of foundations "
-              "and distributed loads). Each interval is subdivided and the mesh is doubled until the estimated "
-              "relative discretisation error of the lowest load factor is below the tolerance. The estimate "
-              "compares successive refinement levels.",)),
-        Table((("Plane",), ("Elements",), ("Tolerance",), ("Achieved estimate",), ("Converged",), ("Eigen solver",)),
-              tuple(rows), numeric=(1, 2, 3), caption=("Relative error of the lowest load factor of each plane.",)),
+              "and distributed loads). Each interval is subdivided by length and the mesh is doubled until the "
+              "estimated relative discretisation error of every reported load factor is below the tolerance. The "
+              "estimate compares successive refinement levels.",)),
+        Table((("Plane",), ("Elements",), ("Tolerance",), ("Lowest load factor",), ("Higher modes",),
+               ("Converged",), ("Eigen solver",)),
+              tuple(rows), numeric=(1, 2, 3, 4), caption=("Estimated relative error of the load factors of each "
+                                                          "plane: the lowest, then the higher modes in order.",)),
     ]
 
 

@@ -19,11 +19,12 @@ from .buckling import buckling_part
 from .closing import closing_part
 from .design import design_figures, design_part_blocks
 from .document import Figure, Part, Table
+from .fixity import fixity_blocks, fixity_figures
 from .imperfect import imperfect_blocks, imperfect_figures
 from .inputs import inputs_part
 from .method import method_part
 
-__all__ = ["OptionalPart", "IMPERFECT_PART", "DESIGN_PART", "report_parts"]
+__all__ = ["OptionalPart", "FIXITY_PART", "IMPERFECT_PART", "DESIGN_PART", "report_parts"]
 
 
 @dataclass(frozen=True)
@@ -45,6 +46,8 @@ class OptionalPart:
     figures_after_table: bool = False
 
 
+#: The part of the depth of fixity (columns held by a foundation).
+FIXITY_PART = OptionalPart("Depth of fixity", fixity_blocks, fixity_figures)
 #: The part of the imperfect-column analysis.
 IMPERFECT_PART = OptionalPart("Imperfect column", imperfect_blocks, imperfect_figures)
 #: The part of the design check.
@@ -76,7 +79,12 @@ def report_parts(res: CaseResults, u: DisplayUnits, sketch: str | None, mode_fig
     if unknown:
         raise ValueError(f"the report has no part for the analysis {unknown[0]!r}: give its Analysis a "
                          "report part in fea/pipeline.py")
-    parts = [inputs_part(res.case, u, sketch), method_part(res), buckling_part(res, u, mode_figures)]
+    design = res.extras.get("design")
+    if design is not None:
+        from ..io.design_output import design_json
+
+        design = design_json(design)
+    parts = [inputs_part(res.case, u, sketch, design), method_part(res), buckling_part(res, u, mode_figures)]
     for name, spec in optional.items():
         if name in res.extras:
             parts.append(_optional_part(name, spec, res.extras[name], u, figures))

@@ -118,7 +118,9 @@ def _eig_sparse(K, G, n_modes: int) -> tuple[np.ndarray, np.ndarray]:
 
     op = LinearOperator((n, n), matvec=matvec, dtype=float)
     m = min(n_modes, n - 2)
-    mu, y = eigsh(op, k=m, which="LA", tol=1e-13, ncv=min(n, max(2 * m + 1, 20)))
+    # a fixed start vector: the same column gives the same digits on every run (ARPACK's default is random)
+    v0 = np.cos(np.arange(n) * 0.7548776662466927) + 1.5
+    mu, y = eigsh(op, k=m, which="LA", tol=1e-13, ncv=min(n, max(2 * m + 1, 20)), v0=v0)
     order = np.argsort(mu)[::-1]
     mu, y = mu[order], y[:, order]
     vec = sla.solve_banded((0, bw), ub, y, check_finite=False)
@@ -284,6 +286,44 @@ def _roundoff_warning(column: Column, floor: float, tol: float | None = None) ->
                    "(a near-mechanism); check the restraints")
 
 
+def _richardson(now: float, before: float, earlier: float | None, orders: list[float]) -> tuple[float, float | None]:
+    """Estimated relative error of ``now`` from the last two or three mesh levels, and the trusted order.
+
+    Appends the newly observed order to ``orders``.  The order is trusted once two successive observations agree
+    (the asymptotic range); before that the plain difference is the estimate.
+    """
+    d = abs(now - before)
+    if earlier is not None:
+        d_prev = abs(before - earlier)
+        if d_prev > 0 and d > 0:
+            orders.append(math.log2(d_prev / d))
+    order = orders[-1] if len(orders) >= 2 and abs(orders[-1] - orders[-2]) < 0.5 and orders[-1] > 1 else None
+    return (d / (2.0**order - 1.0) if order else d) / now, order
+
+
+def _higher_modes(upper: dict[int, np.ndarray], level: int, mode_orders: list[list[float]], mode_est: np.ndarray,
+                  tol: float, asm: Assembled, vec: np.ndarray, floor0: float) -> tuple[np.ndarray, bool]:
+    """Estimated errors of the reported higher load factors, and whether each is within ``tol`` or at round-off.
+
+    Compared level by level in ascending order (mesh refinement lowers every load factor, so ascending order
+    follows the modes).  A mode that appears only on the finer mesh keeps an infinite estimate.
+    """
+    now, before, earlier = upper[level], upper.get(level - 1), upper.get(level - 2)
+    est = np.full(mode_est.shape, math.inf)
+    done = True
+    for i in range(min(now.size, est.size)):
+        if before is None or i >= before.size:
+            done = False
+            continue
+        e = earlier[i] if earlier is not None and i < earlier.size else None
+        est[i], _ = _richardson(float(now[i]), float(before[i]), None if e is None else float(e), mode_orders[i])
+        if est[i] > tol:
+            fl = max(floor0, roundoff_floor(asm, vec[:, i + 1])) if i + 1 < vec.shape[1] else floor0
+            if abs(now[i] - before[i]) / now[i] > 10 * fl:
+                done = False
+    return est, done
+
+
 def _slow_cause(mesh: Mesh, orders: list[float]) -> str:
     """Why refinement did not reach the tolerance: a shear-flexible element (order about 2) or an unsettled rate."""
     p = f"observed order of convergence {orders[-1]:.2g}" if orders else "no order of convergence observed"
@@ -377,8 +417,11 @@ def buckling(column: Column, n_modes: int = 3, tol: float = DEFAULT_TOL, method:
         raise ModelError("method", f"expected 'auto', 'dense' or 'sparse', got {method!r}")
 
     solved: dict[int, float] = {}
+    upper: dict[int, np.ndarray] = {}  # the higher reported load factors at each level
     est = math.inf
+    mode_est = np.full(max(n_modes - 1, 0), math.inf)
     orders: list[float] = []  # observed convergence orders from consecutive meshes
+    mode_orders: list[list[float]] = [[] for _ in range(max(n_modes - 1, 0))]
     roundoff_limited = False
     level = 0
     capped = False
@@ -394,28 +437,24 @@ def buckling(column: Column, n_modes: int = 3, tol: float = DEFAULT_TOL, method:
         if floor > QUOTIENT_FROM:
             lam, vec, floor = _quotient_load_factors(mesh, asm, lam, vec, floor)
         solved[level] = float(lam[0])
+        upper[level] = np.asarray(lam[1:], dtype=float)
         nxt = level + 1
         if level - 1 in solved:
-            d = abs(solved[level] - solved[level - 1])
-            if level - 2 in solved:
-                d_prev = abs(solved[level - 1] - solved[level - 2])
-                if d_prev > 0 and d > 0:
-                    orders.append(math.log2(d_prev / d))
-            # the rate is trusted once two successive observations agree (asymptotic range)
-            order = orders[-1] if len(orders) >= 2 and abs(orders[-1] - orders[-2]) < 0.5 and orders[-1] > 1 \
-                else None
-            est = (d / (2.0**order - 1.0) if order else d) / solved[level]
-            if level >= min_level and est <= tol:
+            est, order = _richardson(solved[level], solved[level - 1], solved.get(level - 2), orders)
+            mode_est, higher_done = _higher_modes(upper, level, mode_orders, mode_est, tol, asm, vec, floor)
+            if level >= min_level and est <= tol and higher_done:
                 break
-            if d / solved[level] <= 10 * floor:
+            d = abs(solved[level] - solved[level - 1])
+            if d / solved[level] <= 10 * floor and est > tol:
                 # refinement now changes the answer only at the round-off level: refining further
                 # would make it worse, not better
                 roundoff_limited = True
                 est = max(est, floor)
                 break
-            if order and est > 0:
+            worst = max(est, float(np.max(mode_est, initial=0.0)))
+            if order and worst > 0 and worst > tol:
                 # skip levels when the trusted rate says several doublings are still needed
-                k = math.ceil(math.log2(est / tol) / order)
+                k = math.ceil(math.log2(worst / tol) / order)
                 if k >= 3:
                     nxt = level + min(k, 4) - 1
         if nxt > MAX_LEVEL:
@@ -433,6 +472,7 @@ def buckling(column: Column, n_modes: int = 3, tol: float = DEFAULT_TOL, method:
         level, mesh = nxt, nxt_mesh
     history = [solved[k] for k in sorted(solved)]
     converged = est <= tol
+    mode_est = mode_est[: max(lam.size - 1, 0)]
     warns: tuple[str, ...] = ()
     if roundoff_limited or floor > 0.1 * tol:
         warns = (_roundoff_warning(column, floor, tol),)
@@ -445,8 +485,12 @@ def buckling(column: Column, n_modes: int = 3, tol: float = DEFAULT_TOL, method:
         why = "largest mesh allowed" if capped else "deepest level"
         msg = (f"mesh refinement stopped at {mesh.n_el} elements ({why}): estimated relative error {est:.1e} > "
                f"{tol:.0e}; cause: {_slow_cause(mesh, orders)}")
+    if converged and mode_est.size and not np.all(mode_est <= tol):
+        bad = [i + 2 for i in range(mode_est.size) if not mode_est[i] <= tol]
+        msg += (f"; higher mode(s) {', '.join(map(str, bad))} short of the tolerance (estimated "
+                f"{', '.join(f'{mode_est[i - 2]:.1e}' for i in bad)})")
     res = _package(column, mesh, asm, lam, vec, solver, np.array(history), est, tol, converged, msg, axis)
-    return replace(res, roundoff_error=floor, warnings=warns)
+    return replace(res, roundoff_error=floor, warnings=warns, mode_errors=np.concatenate([[est], mode_est]))
 
 
 def _package(column, mesh, asm, lam, vec, solver, history, est, tol, converged, msg, axis) -> BucklingResult:
@@ -456,7 +500,10 @@ def _package(column, mesh, asm, lam, vec, solver, history, est, tol, converged, 
     w = full[0::2].T.copy()
     th = full[1::2].T.copy()
     for i in range(n_modes):
-        j = int(np.argmax(np.abs(w[i])))
+        # the lowest node among those within round-off of the largest magnitude: a symmetric column's
+        # antisymmetric mode has two equal extremes, and the choice must not depend on round-off
+        a = np.abs(w[i])
+        j = int(np.argmax(a >= (1.0 - 1e-9) * a.max())) if a.max() > 0 else 0
         s = w[i, j] if abs(w[i, j]) > 0 else th[i, int(np.argmax(np.abs(th[i])))]
         w[i] /= s
         th[i] /= s

@@ -31,10 +31,15 @@ from .eigen import buckling
 from .imperfect_path import MIN_ELEMENTS, NonlinearPath, nonlinear_path
 from .second_order import SecondOrderResult, second_order
 
-__all__ = ["NonlinearPath", "ComparisonRow", "ImperfectResult", "nonlinear_path", "analyse_imperfect",
-           "perry_first_yield", "MIN_ELEMENTS"]
+__all__ = ["NonlinearPath", "ComparisonRow", "ImperfectResult", "ELASTIC_MODEL", "FIBRE_WITH_RS", "FIBRE_NO_RS",
+           "nonlinear_path", "analyse_imperfect", "perry_first_yield", "MIN_ELEMENTS"]
 
 logger = logging.getLogger(__name__)
+
+#: Names of the models a first yield comes from (the JSON ``first_yield_source`` and every output use them).
+ELASTIC_MODEL = "elastic second order, no residual stress"
+FIBRE_WITH_RS = "fibre model with residual stress"
+FIBRE_NO_RS = "fibre model, no residual stress"
 
 
 @dataclass(frozen=True)
@@ -96,15 +101,21 @@ class ImperfectResult:
     critical_load_factor : elastic critical load factor (eigen, auto-refined) [-]
     second_order : SecondOrderResult or None
     nonlinear : NonlinearPath or None
-    first_yield_load_factor : second-order elastic first yield (exact root on the
-        converged mesh) [-] or None
+    second_order_first_yield_load_factor : second-order elastic first yield (exact
+        root on the converged mesh; no residual stress) [-] or None
     fibre_first_yield_load_factor : first yield on the nonlinear path (residual
-        stresses included) [-] or None
+        stresses included when given) [-] or None
     limit_load_factor : ultimate load factor (peak of the nonlinear path) [-] or None
     comparison : one :class:`ComparisonRow` per segment
     status : "ok" or the nonlinear path's status when it did not end normally
-    message : one line on how the analyses ended
+        (an identifier; :data:`fea.io.imperfect_output.STATUS_WORDS` words it)
+    message : one line on how the analyses ended, in plain words
     warnings : things the engineer should know
+    residual_stress : whether the nonlinear (fibre) model carried residual stresses
+
+    The headline first yield (:attr:`first_yield_load_factor`, named by
+    :attr:`first_yield_source`) is the fibre model's when it carried residual
+    stresses, else the second-order elastic one, else the fibre model's.
     """
 
     axis: str
@@ -114,23 +125,70 @@ class ImperfectResult:
     critical_load_factor: float
     second_order: SecondOrderResult | None
     nonlinear: NonlinearPath | None
-    first_yield_load_factor: float | None
+    second_order_first_yield_load_factor: float | None
     fibre_first_yield_load_factor: float | None
     limit_load_factor: float | None
     comparison: tuple[ComparisonRow, ...]
     status: str
     message: str
     warnings: tuple[str, ...] = field(default_factory=tuple)
+    residual_stress: bool = False
+
+    @property
+    def fibre_model(self) -> str:
+        """The name of the nonlinear model, with or without residual stress."""
+        return FIBRE_WITH_RS if self.residual_stress else FIBRE_NO_RS
 
     @property
     def reported_first_yield(self) -> tuple[float | None, str | None]:
-        """The headline first-yield load factor and the analysis it comes from: the second-order elastic
-        analysis when it found one, else the nonlinear fibre path; (None, None) when neither did."""
-        if self.first_yield_load_factor is not None:
-            return self.first_yield_load_factor, "second-order elastic"
-        if self.fibre_first_yield_load_factor is not None:
-            return self.fibre_first_yield_load_factor, "nonlinear fibre path"
+        """The headline first-yield load factor and the model it comes from; (None, None) when none found one.
+
+        With residual stress in the fibre model its first yield is the headline (the elastic model has
+        none, so its first yield can lie above the ultimate load); otherwise the second-order elastic first
+        yield (an exact root), else the fibre model's.
+        """
+        so, fib = self.second_order_first_yield_load_factor, self.fibre_first_yield_load_factor
+        if fib is not None and (self.residual_stress or so is None):
+            return fib, self.fibre_model
+        if so is not None:
+            return so, ELASTIC_MODEL
         return None, None
+
+    @property
+    def first_yield_load_factor(self) -> float | None:
+        """The headline first-yield load factor [-] (see :attr:`reported_first_yield`)."""
+        return self.reported_first_yield[0]
+
+    @property
+    def first_yield_source(self) -> str | None:
+        """The model the headline first yield comes from."""
+        return self.reported_first_yield[1]
+
+    @property
+    def first_yield_remark(self) -> str:
+        """Why a first yield shown (elastic second order, Perry-Robertson) lies above the ultimate load; "" when
+        none does."""
+        lim, so, fib = self.limit_load_factor, self.second_order_first_yield_load_factor, \
+            self.fibre_first_yield_load_factor
+        if lim is None:
+            return ""
+        out = []
+        if so is not None and so > lim * (1 + 1e-9):
+            if self.residual_stress:
+                why = "that model has no residual stress" + (
+                    f" (with the residual stresses the fibre model first yields at load factor {fib:.4g})"
+                    if fib is not None else "")
+            else:
+                why = ("that model is linear-elastic with small deflections, while the fibre model follows large "
+                       "deflections on discrete fibres; the ultimate load governs")
+            out.append(f"the elastic second-order first yield {so:.4g} lies above the ultimate load {lim:.4g} "
+                       f"because {why}")
+        perry = [c.perry_load_factor for c in self.comparison if c.perry_load_factor is not None]
+        if perry and max(perry) > lim * (1 + 1e-9):
+            out.append(f"the Perry-Robertson first yield {max(perry):.4g} lies above the ultimate load {lim:.4g} "
+                       "because the closed form takes the bow alone on a uniform pin-ended member: no residual "
+                       "stress, lateral loads or eccentricities")
+        return "; ".join(out)
 
     @property
     def success(self) -> bool:
@@ -230,7 +288,12 @@ def analyse_imperfect(column: Column, imperfection: Imperfection | None, section
     return ImperfectResult(
         axis=axis, analysis=analysis, imperfection=imperfection, bow_amplitude=float(np.abs(w0).max()),
         critical_load_factor=float(lam_cr), second_order=so, nonlinear=nl,
-        first_yield_load_factor=None if so is None else so.first_yield_load_factor,
+        second_order_first_yield_load_factor=None if so is None else so.first_yield_load_factor,
         fibre_first_yield_load_factor=None if nl is None else nl.first_yield_load_factor,
         limit_load_factor=None if nl is None else nl.limit_load_factor, comparison=comp, status=status,
-        message="; ".join(msgs), warnings=tuple(warn))
+        message="; ".join(msgs), warnings=tuple(warn), residual_stress=nl is not None and _has_residual(sections))
+
+
+def _has_residual(sections) -> bool:
+    """Whether any fibre section carries a residual stress."""
+    return any(s.residual is not None and bool(np.any(np.asarray(s.residual) != 0)) for s in sections or ())

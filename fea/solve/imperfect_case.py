@@ -21,8 +21,11 @@ if TYPE_CHECKING:
     from ..model.case import Case, SegmentInfo
     from .imperfect import ImperfectResult
 
-__all__ = ["FIBRE_MODEL_NOTE", "declares_imperfect",
+__all__ = ["FIBRE_MODEL_NOTE", "W_KEYS", "declares_imperfect",
            "imperfection_spec", "plane_inputs", "run_imperfect", "as_case_error"]
+
+#: The ``[imperfection]`` key of the elastic section modulus of each plane (one-plane cases: ``W``).
+W_KEYS = {"in-plane": "W", "major": "W_major", "minor": "W_minor"}
 
 #: How the note describing the fibre model starts: a description of the model, not a warning.
 FIBRE_MODEL_NOTE = "fibre model"
@@ -114,14 +117,14 @@ def plane_inputs(case: Case, axis: str, spec: ImperfectionSpec | None = None):
             missing_shape = p
         sections.append(_section_of(info, shape, axis, p, spec, notes))
     analysis = _analysis_kind(spec, missing_shape, missing_fy, notes)
-    ax = "major" if axis == "in-plane" else axis
+    w_key = W_KEYS[axis]
     if all(s.W is None for s in sections):
         notes.append("no section modulus: stresses and first yield not computed (give a section or "
-                     f"[imperfection] W_{ax})")
+                     f"[imperfection] {w_key})")
     elif any(s.W is None for s in sections):
         i = next(k for k, s in enumerate(sections) if s.W is None)
-        raise CaseError(f"segment[{i + 1}].section", "missing: give the section (or [imperfection] W_...) for every "
-                                                     "segment, so stresses can be checked everywhere")
+        raise CaseError(f"segment[{i + 1}].section", f"missing: give the section (or [imperfection] {w_key}) for "
+                                                     "every segment, so stresses can be checked everywhere")
     if analysis in ("nonlinear", "both"):
         rs = (f"residual stress {spec.residual_stress:g} fy at the flange tips of I sections (linear flange "
               "pattern)" if spec.residual_stress else "no residual stress")

@@ -230,7 +230,8 @@ def nonlinear_path(column: Column, imperfection: Imperfection | None, sections, 
                                n_ip=n_ip, initial_step=initial_step, max_step=max_step, max_steps=max_steps,
                                tol_residual=tolerance, tol_displacement=tolerance, lambda_max=lambda_max,
                                displacement_limit=disp_limit, drop_fraction=drop_fraction, limit_tol=limit_tol)
-    return _package(r, mesh, d.w0n, sec, n_fib, tolerance)
+    message = path_message(r, x, disp_limit, max_steps=max_steps, drop_fraction=drop_fraction)
+    return _package(r, mesh, d.w0n, sec, n_fib, tolerance, message)
 
 
 def _mesh(column: Column, imperfection, actions: LateralActions, min_elements: int) -> Discrete:
@@ -326,7 +327,52 @@ def _path_control(column: Column, d: Discrete, fixed: list[int], method: str, de
     return disp_limit, control_dof
 
 
-def _package(r: PathResult, mesh, w0n, sec, n_fib: int, tol: float) -> NonlinearPath:
+def path_message(r: PathResult, heights: np.ndarray, disp_limit, *, max_steps: int,
+                 drop_fraction: float | None) -> str:
+    """How the trace ended, in engineering words (the path kernel's own message names its settings).
+
+    Parameters
+    ----------
+    r : the kernel's result
+    heights : (n_nodes,) node heights [m]
+    disp_limit : (kernel DOF, value) of the displacement stopping rule, or None
+    max_steps, drop_fraction : the stopping rules given to the kernel
+    """
+    lam = r.load_factors
+    last = float(lam[-1]) if lam.size else 0.0
+    where = ""
+    if disp_limit is not None:
+        dof, value = disp_limit
+        where = (f"the base rotation reached the stopping limit of {value:.4g} rad" if dof % 3 == 2 else
+                 f"the lateral deflection {heights[dof // 3]:.4g} m up reached the stopping limit of {value:.4g} m")
+    words = {
+        "drop_after_peak": (f"past the ultimate load the load fell to {drop_fraction:g} of its peak, as far as the "
+                            "path is followed"
+                            if drop_fraction is not None else "past the ultimate load the load fell"),
+        "displacement_limit": where or "the deflection reached its stopping limit",
+        "lambda_max": f"the load factor reached the largest value asked for ({last:.6g})",
+        "max_steps": f"the largest number of steps ({max_steps}, [imperfection] steps) was used",
+        "step_failed": (f"no equilibrium was found beyond load factor {last:.6g}, even with the step halved many "
+                        "times; the path stops there"),
+        "load_control_limit": (f"load control stopped at load factor {last:.6g}: the peak lies just above and load "
+                               "control cannot pass it (use method = 'arc-length'); no ultimate load is reported"),
+        "bifurcation": ("the column lost stability while the load still rose (a bifurcation, at load factor about "
+                        f"{r.bifurcation_load_factor:.6g}): no peak was found; give a bow"
+                        if r.bifurcation_load_factor is not None else
+                        "the column lost stability while the load still rose (a bifurcation): no peak was found; "
+                        "give a bow"),
+        "constant_load_failed": "the permanent loads alone could not be carried (they exceed the column's strength "
+                                "or a critical load)",
+    }
+    text = words.get(r.status, r.message)
+    if r.status in ("max_steps", "lambda_max", "displacement_limit") and r.limit_load_factor is None:
+        text += "; no peak was passed, so no ultimate load is reported"
+    elif r.limit_load_factor is not None and r.limit_accuracy is not None and not math.isfinite(r.limit_accuracy):
+        text += "; the peak could not be refined: the ultimate load is the highest point reached"
+    return text
+
+
+def _package(r: PathResult, mesh, w0n, sec, n_fib: int, tol: float, message: str | None = None) -> NonlinearPath:
     x = mesh.x
     defl = r.displacements[:, 0::3] + w0n[None, :]
     k = r.limit_index if r.limit_index is not None else len(r.load_factors) - 1
@@ -352,7 +398,8 @@ def _package(r: PathResult, mesh, w0n, sec, n_fib: int, tol: float) -> Nonlinear
         yield_fraction=readonly(yf), yield_extent=readonly(ext), limit_load_factor=r.limit_load_factor,
         limit_accuracy=r.limit_accuracy, limit_index=r.limit_index,
         first_yield_load_factor=r.first_yield_load_factor, first_yield_bracket=r.first_yield_bracket,
-        first_yield_height=fy_h, first_yield_offset=fy_off, status=r.status, message=r.message,
+        first_yield_height=fy_h, first_yield_offset=fy_off, status=r.status,
+        message=r.message if message is None else message,
         success=bool(r.success), n_elements=int(mesh.n_el), n_fibres=int(n_fib), n_steps=r.n_steps,
         n_iter=r.n_iter, n_bisections=r.n_bisections, max_residual=r.max_residual, tolerance=float(tol))
 

@@ -133,14 +133,26 @@ class SpringStudy:
 
     # -- internals -------------------------------------------------------
     def _count(self, m: np.ndarray, delta: np.ndarray) -> np.ndarray:
-        """Number of mu_j(k) above trial values ``m`` (n_k,) for updates ``delta`` (n_k,)."""
+        """Number of mu_j(k) above trial values ``m`` (n_k,) for updates ``delta`` (n_k,).
+
+        The secular sum has a pole at every ``mu_j``; a trial value that lands
+        exactly on one (as bisection toward a mode with a node at the spring
+        can, where ``w_j = 0`` and the answer is ``mu_j`` itself) is moved up
+        by one unit in the last place, which changes the count only for an
+        eigenvalue in that gap, far below the bisection tolerance.  So every
+        term ``w_j^2 / D_j`` is finite and no infinity meets a zero factor.
+        """
         D = self.mu[None, :] - m[:, None]
+        on_pole = np.any(D == 0.0, axis=1)
+        while np.any(on_pole):
+            m = np.where(on_pole, np.nextafter(m, np.inf), m)
+            D = self.mu[None, :] - m[:, None]
+            on_pole = np.any(D == 0.0, axis=1)
         p0 = np.count_nonzero(D > 0, axis=1)
-        with np.errstate(divide="ignore", invalid="ignore"):
-            ssum = np.sum(self.w2[None, :] / D, axis=1)
+        ssum = np.sum(self.w2[None, :] / D, axis=1)
         rigid = np.isinf(delta)
         c = -m * np.where(rigid, 0.0, delta)
-        s = 1.0 + c * ssum
+        s = 1.0 + np.multiply(c, ssum, out=np.zeros_like(ssum), where=c != 0.0)
         up = (c > 0) & (s < 0)
         down = ((c < 0) & (s < 0)) | (rigid & (ssum > 0))
         return p0 + up - down

@@ -7,9 +7,14 @@ Two questions, each answered without a dense copy of any matrix:
   two rigid-body motions ``w = a + b x``, ``theta = b``.  The column is a
   mechanism exactly when some such motion satisfies every rigid restraint and
   engages no spring and no foundation.  That is decided from the restraints
-  themselves (:func:`rigid_body_mechanism`), exactly, whatever the stiffness
-  ratios: no pivot threshold can mistake a stiff-but-valid column for a
-  mechanism.
+  and foundations themselves (:func:`rigid_body_mechanism`), exactly, whatever
+  the stiffness ratios: no pivot threshold can mistake a stiff-but-valid column
+  for a mechanism.  A foundation stores ``integral k(x) (a + b x)^2 dx``; its
+  modulus is positive on a range of positive length (it is linear and not zero
+  at both ends), where ``a + b x`` vanishes only for ``a = b = 0``: one
+  foundation alone resists both rigid-body motions, so a pile held by the soil
+  alone is not a mechanism.  A foundation no longer than the station tolerance
+  merges into one station of the mesh and stores nothing: it does not count.
 * **Is a matrix positive definite?**  :func:`scaled_cholesky` factors the
   symmetrically scaled matrix ``D^-1/2 A D^-1/2`` (unit diagonal) in banded
   storage, so its pivots are measured against the matrix's own scale, and the
@@ -39,13 +44,19 @@ def _distinct(xs: list[float], tol: float) -> list[float]:
 
 
 def rigid_body_mechanism(column: Column) -> str | None:
-    """The rigid-body motion nothing resists, as a message; None when there is none (exact)."""
+    """The rigid-body motion nothing resists, as a message; None when there is none (exact).
+
+    Rigid lateral restraints at two distinct heights, a rigid rotational restraint with any lateral support, a
+    lateral support with a rotational spring, lateral springs at two heights, or one foundation (of a length
+    above the station tolerance) each leave no rigid-body motion free.
+    """
     tol = STATION_TOL * column.height
     lat_rigid = _distinct([r.at for r in column.restraints if math.isinf(r.lateral)], tol)
     rot_rigid = any(math.isinf(r.rotation) for r in column.restraints)
     lat_springs = _distinct([r.at for r in column.restraints if 0 < r.lateral < math.inf], tol)
     rot_spring = any(0 < r.rotation < math.inf for r in column.restraints)
-    found = bool(column.foundations)  # a foundation's modulus is positive somewhere on a range of length > 0
+    # a foundation's modulus is positive on a range of length > 0: it resists translation and rotation alike
+    found = any(f.top - f.bottom > tol for f in column.foundations)
     if rot_rigid:
         if lat_rigid or lat_springs or found:
             return None
@@ -65,7 +76,8 @@ def rigid_body_mechanism(column: Column) -> str | None:
                 "add a second lateral restraint or a rotational restraint")
     if rot_spring:
         return "no lateral restraint: the column can slide sideways as a rigid body; restrain it laterally"
-    return "no lateral restraint: the column can move as a rigid body; add lateral or rotational restraint"
+    return ("no lateral restraint and no foundation: the column can move as a rigid body; add lateral or "
+            "rotational restraint, or a foundation")
 
 
 def bandwidth(*mats) -> int:

@@ -8,7 +8,10 @@ semi-definite matrix, to ``K``; by the Courant-Fischer min-max
 characterisation ``lam_1 = min phi^T K phi / phi^T G phi`` (over ``phi`` with
 ``phi^T G phi > 0``) cannot fall (Courant & Hilbert, *Methods of Mathematical
 Physics*, vol. 1, ch. 1).  A rigid restraint is the limit ``k -> inf`` and
-also raises or keeps it.  So over a box of spring ranges the load factor is
+also raises or keeps it.  A foundation modulus ``k`` adds ``k D`` with ``D``
+the consistent Winkler matrix of a unit modulus, also positive semi-definite
+(``phi^T D phi`` is the integral of the unit modulus times ``w^2``), so the
+same holds for foundation moduli.  So over a box of spring ranges the load factor is
 lowest at the corner with every spring at its low end and highest at the corner
 with every spring at its high end; every corner is still evaluated and
 reported, so the claim can be seen to hold.  K of a segment is a monotone
@@ -29,7 +32,7 @@ import numpy as np
 from ..errors import ModelError
 from ..model import Column
 from ..solve.eigen import DEFAULT_TOL
-from .spring_set import SpringModel, converged_level, effective_length_factors
+from .spring_set import SpringModel, converged_level, effective_length_factors, with_stiffness
 
 __all__ = ["PlaneBounds", "plane_bounds", "MAX_SPRINGS"]
 
@@ -93,7 +96,7 @@ def plane_bounds(column: Column, springs, low, high, axis: str = "", tol: float 
     for ends in (low, high):
         col = column
         for (r, kind), v in zip(springs, ends):
-            col = col.with_restraint(r, **{kind: float(v)})
+            col = with_stiffness(col, r, kind, float(v))
         try:
             levels.append(converged_level(col, tol))
         except ModelError:

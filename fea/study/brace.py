@@ -1,15 +1,28 @@
 """Brace stiffness: how stiff a restraint must be to act as a point of no sway.
 
-For one or more restraints varied together (equal stiffness ``k``), the
-*threshold stiffness* is the least ``k`` at which the lowest load factor
-reaches ``(1 - eps)`` times its value with those restraints rigid.  Where the
-braced mode has a node at the brace (a symmetric column with a brace at
-mid-height) the load factor reaches the rigid value exactly at a finite ``k``:
-the mode switches from a mode that moves the brace to one that does not, and
-the curve has a corner there.  Elsewhere it only approaches the rigid value,
-and the threshold depends on ``eps``, which is therefore stated with every
-result.  The threshold is found by bisection on ``log k`` (the load factor
-never decreases with ``k``; see :mod:`fea.study.bounds`), on one mesh.
+For one or more restraints varied together (equal stiffness ``k``), the result
+is the *fraction stiffness*: the ``k`` at which the lowest load factor is a
+stated fraction (default 0.95) of its value with those restraints rigid.
+
+The *threshold stiffness* is the least ``k`` at which the load factor reaches
+``(1 - eps)`` times the rigid value.  It is a result only where the braced
+mode has a node at the brace (a symmetric column with a brace at mid-height,
+equally spaced braces): the load factor reaches the rigid value exactly at a
+finite ``k``, where the mode switches from one that moves the brace to one
+that does not (a corner of the curve), and the threshold does not depend on
+``eps``.  Elsewhere the load factor only approaches the rigid value as ``k``
+grows without bound, and the least ``k`` within ``eps`` of it grows like
+``1 / eps``: a number set by the tolerance alone.  The two are told apart by
+finding the threshold also at ``10 eps``: at a corner the two agree (to
+``THRESHOLD_AGREEMENT``), on an asymptote they differ by a factor of about 10;
+only a corner's threshold is reported (:attr:`BraceResult.threshold_reached`).
+Both are found by bisection on ``log k`` (the load factor never decreases
+with ``k``; see :mod:`fea.study.bounds`), on one mesh.
+
+The varied stiffness may also be a foundation modulus (``kind`` one of
+:data:`fea.study.spring_set.FOUNDATION_KINDS`; "rigid" then holds the
+foundation's whole range); Winter's and AISC's figures are for lateral braces
+only.
 
 Beside it: Winter's ideal stiffness for ``n`` equally spaced braces,
 ``beta_i = 2 [1 + cos(pi / (n + 1))] P / L_b`` (Winter, G., "Lateral bracing of
@@ -17,9 +30,13 @@ columns and beams", Trans. ASCE 125, 1960; the coefficients 2, 3, 3.414, 3.618
 for n = 1..4), where ``P`` is the axial force at the braces at the rigid-brace
 critical state and ``L_b`` the brace spacing; Winter's model hinges the column at
 the braces, so it differs slightly from a continuous column for n >= 2.  And the
-nodal (point) brace requirements for columns of AISC 360-16 Appendix 6,
-Section 6.2 (from memory, source not at hand): strength ``P_br = 0.01 P_r``,
-stiffness ``beta_br = 8 P_r / (phi L_br)`` with ``phi = 0.75`` (LRFD).
+nodal (point) brace requirements for columns of AISC 360-16, *Specification for
+Structural Steel Buildings*, Appendix 6, Section 6.2 (point bracing; from
+memory): strength ``P_br = 0.01 P_r``, stiffness ``beta_br = 8 P_r / (phi L_br)``
+with ``phi = 0.75`` (LRFD).  ``P_r`` is taken as the largest compression in the
+braced lengths next to the brace (from the next lateral support below it to
+the next above), so a brace between a lightly and a heavily loaded length is
+sized for the heavier.
 
 Pure: SI floats, no I/O.
 """
@@ -34,13 +51,15 @@ import numpy as np
 from ..errors import ModelError
 from ..model import Column
 from ..solve.eigen import DEFAULT_TOL
-from .spring_set import SpringModel, converged_level
+from .spring_set import SpringModel, converged_level, is_foundation_kind, stiffness_of, with_stiffness
 
 __all__ = ["BraceResult", "brace_stiffness", "winter_coefficient", "AISC_PHI", "AISC_STIFFNESS_COEFF",
            "AISC_STRENGTH_RATIO", "DEFAULT_EPS", "BraceForce", "brace_force"]
 
 #: Default relative shortfall from the rigid-brace load factor that counts as reached.
 DEFAULT_EPS = 1e-6
+#: Thresholds at eps and 10 eps within this ratio: the curve has a corner (mode switch) there.
+THRESHOLD_AGREEMENT = 1.5
 #: AISC 360-16 Appendix 6, Section 6.2, point (nodal) bracing of columns (from memory).
 AISC_PHI = 0.75
 AISC_STIFFNESS_COEFF = 8.0
@@ -73,12 +92,19 @@ class BraceResult:
     eps : relative shortfall accepted as "reached"
     threshold : least stiffness reaching (1 - eps) load_factor_rigid [SI]; None
         when no finite stiffness reaches it; 0 when the braces are not needed
+    threshold_kind : "corner" (the load factor reaches the rigid value at a
+        finite stiffness, a mode switch: a result), "tolerance" (it only
+        approaches it: the threshold is set by ``eps`` alone, not a result),
+        "not needed" (0) or "not reached" (None)
     fraction : target fraction of the rigid load factor [-]
     fraction_stiffness : stiffness at which the load factor is fraction *
         load_factor_rigid [SI] (0 when already reached without braces)
-    axial_force_rigid : largest compression at the braces at the rigid-brace
-        critical state [N] (Winter's P)
+    axial_force_rigid : largest compression in the braced lengths next to the
+        braces at the rigid-brace critical state [N] (Winter's P)
     axial_force_design : the same at load factor 1 (AISC P_r) [N]
+    braced_lengths : ((bottom, top), ...) the lengths next to the braces over
+        which those forces are the largest [m]
+    axial_force_height : height of the largest compression at load factor 1 [m]
     spacing : brace spacing L_b, the longest distance from a brace to the next
         lateral support [m]
     equally_spaced : braces and end supports evenly spaced, ends rigid
@@ -99,10 +125,13 @@ class BraceResult:
     load_factor_free: float
     eps: float
     threshold: float | None
+    threshold_kind: str
     fraction: float
     fraction_stiffness: float | None
     axial_force_rigid: float
     axial_force_design: float
+    braced_lengths: tuple[tuple[float, float], ...]
+    axial_force_height: float
     spacing: float
     equally_spaced: bool
     winter_coefficient: float
@@ -114,6 +143,11 @@ class BraceResult:
     curve_load_factor: np.ndarray
     level: int
     model: SpringModel
+
+    @property
+    def threshold_reached(self) -> float | None:
+        """The threshold stiffness when it is a result (a corner of the curve, or 0), else None."""
+        return self.threshold if self.threshold_kind in ("corner", "not needed") else None
 
 
 def _supports(column: Column, restraints: tuple[int, ...]) -> tuple[float, bool]:
@@ -157,11 +191,14 @@ def brace_stiffness(column: Column, restraints, kind: str = "lateral", fraction:
     if not 0 < eps < 0.01:
         raise ModelError("eps", f"expected a relative tolerance between 0 and 0.01, got {eps!r}")
     springs = tuple((i, kind) for i in restraints)
-    given = tuple(getattr(column.restraints[i], kind) for i in restraints) if all(
-        0 <= i < len(column.restraints) for i in restraints) else ()
+    soil = is_foundation_kind(kind)
+    items = column.foundations if soil else column.restraints
+    given = tuple(stiffness_of(column, i, kind) for i in restraints) if all(
+        0 <= i < len(items) for i in restraints) else ()
     rigid_col = column
-    for i in restraints:
-        rigid_col = rigid_col.with_restraint(i, **{kind: math.inf})
+    for i in restraints:  # a rigid foundation is not a column: a thousand times its modulus sets the mesh
+        rigid_col = with_stiffness(rigid_col, i, kind, 1e3 * max(given[0] if given else 0.0, 1.0) if soil
+                                   else math.inf)
     levels = [converged_level(rigid_col, tol)]
     try:
         levels.append(converged_level(column, tol))
@@ -179,8 +216,15 @@ def brace_stiffness(column: Column, restraints, kind: str = "lateral", fraction:
     lam_given = model.load_factor(np.array(given))
     seg_ei = max(s.E * s.I_ref for s in column.segments)
     H = column.height
-    scale = seg_ei / H**3 if kind == "lateral" else seg_ei / H
+    scale = seg_ei / H**3 if kind == "lateral" else seg_ei / H**4 if soil else seg_ei / H
     k_th = _least_stiffness(lam, lam_0, (1.0 - eps) * lam_r, scale)
+    if k_th is None:
+        th_kind = "not reached"
+    elif k_th == 0.0:
+        th_kind = "not needed"
+    else:
+        k_10 = _least_stiffness(lam, lam_0, (1.0 - 10.0 * eps) * lam_r, scale)
+        th_kind = "corner" if k_10 and k_th / k_10 < THRESHOLD_AGREEMENT else "tolerance"
     if fraction >= 1.0 - eps:
         k_f = k_th
     elif lam_0 >= fraction * lam_r:
@@ -189,20 +233,33 @@ def brace_stiffness(column: Column, restraints, kind: str = "lateral", fraction:
         k_f = _fraction_stiffness(lam, fraction * lam_r, k_th if k_th else scale)
 
     # Winter and AISC figures
-    stations = tuple(column.restraints[i].at for i in restraints)
-    P_rigid, P_design = _brace_axial_forces(column, stations, lam_r)
-    lb, even = _supports(column, restraints)
+    if soil:
+        stations = tuple(0.5 * (column.foundations[i].bottom + column.foundations[i].top) for i in restraints)
+        lb, even = 0.0, False
+        lengths: tuple[tuple[float, float], ...] = tuple((column.foundations[i].bottom, column.foundations[i].top)
+                                                         for i in restraints)
+    else:
+        stations = tuple(column.restraints[i].at for i in restraints)
+        lb, even = _supports(column, restraints)
+        lengths = _braced_lengths(column, restraints)
+    P_rigid, P_design, at_max = _brace_axial_forces(column, lengths, lam_r)
     c = winter_coefficient(len(restraints))
-    marks = [v for v in (k_th, k_f, (2.0 * P_rigid / lb) if lb > 0 else None) if v and math.isfinite(v)]
+    marks = [v for v in (k_th, k_f, (2.0 * P_rigid / lb) if lb > 0 and not soil else None)
+             if v and math.isfinite(v)]
     if not marks:
         marks = [scale]
-    ks = np.logspace(math.log10(min(marks)) - 1.5, math.log10(max(marks)) + 1.0, 121)
+    lo_k, hi_k = math.log10(min(marks)) - 1.5, math.log10(max(marks)) + 1.0
+    own = [math.log10(v) for v in given if v > 0 and math.isfinite(v)]  # the case's own stiffness on the chart
+    if own and (min(own) < lo_k or max(own) > hi_k):
+        lo_k, hi_k = min([lo_k, min(own) - 0.5]), max([hi_k, max(own) + 0.5])
+    ks = np.logspace(lo_k, hi_k, 121)
     curve = np.array([lam(k) for k in ks])
     return BraceResult(
         axis=axis, restraints=restraints, kind=kind, stations=stations, given_stiffness=given,
         load_factor_given=lam_given, load_factor_rigid=lam_r, load_factor_free=lam_0, eps=eps, threshold=k_th,
-        fraction=fraction, fraction_stiffness=k_f, axial_force_rigid=P_rigid, axial_force_design=P_design,
-        spacing=lb, equally_spaced=even, winter_coefficient=c,
+        threshold_kind=th_kind, fraction=fraction, fraction_stiffness=k_f, axial_force_rigid=P_rigid,
+        axial_force_design=P_design, braced_lengths=lengths, axial_force_height=at_max, spacing=lb,
+        equally_spaced=even, winter_coefficient=c,
         winter_stiffness=c * P_rigid / lb if lb > 0 else math.nan,
         aisc_stiffness=AISC_STIFFNESS_COEFF * P_design / (AISC_PHI * lb) if lb > 0 else math.nan,
         aisc_strength=AISC_STRENGTH_RATIO * P_design,
@@ -250,12 +307,37 @@ def _fraction_stiffness(lam, goal: float, hi: float) -> float:
     return math.exp(brentq(lambda t: lam(math.exp(t)) - goal, math.log(lo), math.log(hi), xtol=1e-13, rtol=1e-13))
 
 
-def _brace_axial_forces(column: Column, stations: tuple[float, ...], lam_r: float) -> tuple[float, float]:
-    """Largest compression at the braces at the rigid-brace critical state (Winter's P) and at load factor 1."""
+def _braced_lengths(column: Column, restraints: tuple[int, ...]) -> tuple[tuple[float, float], ...]:
+    """The lengths next to each brace: from the next lateral support (or end) below it to the next above."""
+    others = sorted(r.at for i, r in enumerate(column.restraints) if i not in restraints and r.lateral > 0)
+    pts = sorted(set([0.0, column.height] + others + [column.restraints[i].at for i in restraints]))
+    out = []
+    for i in restraints:
+        s = column.restraints[i].at
+        j = pts.index(s)
+        out.append((pts[max(j - 1, 0)], pts[min(j + 1, len(pts) - 1)]))
+    return tuple(out)
+
+
+def _brace_axial_forces(column: Column, lengths, lam_r: float) -> tuple[float, float, float]:
+    """Largest compression in the braced lengths at the rigid-brace critical state (Winter's P), at load
+    factor 1 (AISC P_r), and the height of the latter [N, N, m].
+
+    The axial force is piecewise linear between the column's stations, so its
+    largest value over a length is at a station just above or just below.
+    """
     tolx = 1e-9 * column.height
-    Nv = max(float(column.axial_force(np.array([max(s - tolx, 0.0)]), permanent=False)[0]) for s in stations)
-    Np = max(float(column.axial_force(np.array([max(s - tolx, 0.0)]), permanent=True)[0]) for s in stations)
-    return Np + lam_r * Nv, Np + Nv
+    st = np.array(column.stations())
+    xs = []
+    for a, b in lengths:
+        inner = st[(st >= a) & (st <= b)]
+        xs += [min(max(x + d, a), b) for x in np.concatenate([[a, b], inner]) for d in (-tolx, tolx)]
+    x = np.array(sorted(set(xs)))
+    Np = column.axial_force(x, permanent=True)
+    Nv = column.axial_force(x, permanent=False)
+    design = Np + Nv
+    j = int(np.argmax(design))
+    return float(np.max(Np + lam_r * Nv)), float(design[j]), float(x[j])
 
 
 @dataclass(frozen=True)
@@ -288,8 +370,9 @@ def brace_force(column: Column, result: BraceResult, bow_ratio: float = 500.0, s
     The brace force is ``k u`` with ``u`` the lateral deflection at the brace
     added by the loads (the brace is unstressed on the bowed column).  The
     stiffness is ``stiffness`` if given, else the braces' own when finite, else
-    twice the threshold (Winter's advice to provide about twice the ideal
-    stiffness for an imperfect column, from memory).
+    twice the threshold where the curve has one, else twice the fraction
+    stiffness (Winter's advice to provide about twice the ideal stiffness for an
+    imperfect column, from memory).
     """
     from ..model.imperfection import Imperfection
     from ..solve.second_order import second_order
@@ -298,8 +381,11 @@ def brace_force(column: Column, result: BraceResult, bow_ratio: float = 500.0, s
         k, basis = float(stiffness), "as requested"
     elif all(math.isfinite(v) and v > 0 for v in result.given_stiffness):
         k, basis = float(min(result.given_stiffness)), "as given in the case"
-    elif result.threshold:
-        k, basis = 2.0 * result.threshold, "twice the threshold stiffness"
+    elif result.threshold_reached:
+        k, basis = 2.0 * float(result.threshold_reached), "twice the threshold stiffness"
+    elif result.fraction_stiffness:
+        k, basis = 2.0 * result.fraction_stiffness, (f"twice the stiffness for {100 * result.fraction:g}% of the "
+                                                     "rigid-brace load factor")
     else:
         raise ModelError("brace", "no finite brace stiffness to evaluate the brace force with")
     if not (k > 0 and math.isfinite(k)):

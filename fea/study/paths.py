@@ -22,13 +22,14 @@ from dataclasses import dataclass
 from ..errors import CaseError
 from ..units import DIMENSIONS, parse
 
-__all__ = ["KeyPath", "parse_key", "with_values", "format_si", "SPRING_KINDS"]
+__all__ = ["KeyPath", "parse_key", "with_values", "format_si", "SPRING_KINDS", "FOUNDATION_MODULI"]
 
 #: Leaf key -> physical quantity (a key of :data:`fea.units.DIMENSIONS`), per table name.
 _LEAVES: dict[str, dict[str, str]] = {
     "segment": {"length": "length", "E": "stress", "fy": "stress", "A": "area", "S": "force", "S_major": "force",
-                "S_minor": "force", **{k: "second moment of area" for k in
-                                       ("I", "I_major", "I_minor", "I_top", "I_major_top", "I_minor_top")}},
+                "S_minor": "force", "axial_force": "force", "axial_force_permanent": "force",
+                **{k: "second moment of area"
+                   for k in ("I", "I_major", "I_minor", "I_top", "I_major_top", "I_minor_top")}},
     "restraint": {"at": "length", "lateral": "translational stiffness", "rotation": "rotational stiffness"},
     "beam": {"E": "stress", "I": "second moment of area", "span": "length"},
     "load": {"at": "length", "axial": "force"},
@@ -41,6 +42,8 @@ _LEAVES: dict[str, dict[str, str]] = {
 
 #: Restraint keys that are springs ("free" and "rigid" allowed).
 SPRING_KINDS = ("lateral", "rotation")
+#: Foundation keys that are moduli (studied like springs; finite values only).
+FOUNDATION_MODULI = ("modulus", "modulus_bottom", "modulus_top")
 
 _PART = re.compile(r"^([A-Za-z_]+)(?:\[(\d+)\])?$")
 
@@ -80,9 +83,35 @@ class KeyPath:
         return len(self.parts) == 2 and self.parts[0][0] == "restraint" and self.leaf in SPRING_KINDS
 
     @property
+    def is_foundation(self) -> bool:
+        """A foundation modulus (``foundation[i].modulus``, ``modulus_bottom`` or ``modulus_top``)."""
+        return len(self.parts) == 2 and self.parts[0][0] == "foundation" and self.leaf in FOUNDATION_MODULI
+
+    @property
+    def is_stiffness(self) -> bool:
+        """A restraint spring or a foundation modulus: changed on the parsed case, studied like a spring."""
+        return self.is_spring or self.is_foundation
+
+    @property
     def restraint_number(self) -> int | None:
         """1-based number of the [[restraint]] table, for spring keys."""
         return self.parts[0][1] if self.is_spring else None
+
+    @property
+    def table_number(self) -> int | None:
+        """1-based number of the [[restraint]] or [[foundation]] table of a stiffness key."""
+        return self.parts[0][1] if self.is_stiffness else None
+
+    @property
+    def label(self) -> str:
+        """A readable name for a chart axis or a table: "restraint 1 rotation stiffness"."""
+        if self.is_spring:
+            return f"restraint {self.parts[0][1]} {self.leaf} stiffness"
+        if self.is_foundation:
+            what = {"modulus": "modulus", "modulus_bottom": "modulus at bottom", "modulus_top": "modulus at top"}
+            return f"foundation {self.parts[0][1]} {what[self.leaf]}"
+        names = [f"{n} {i}" if i is not None else n for n, i in self.parts[:-1]]
+        return " ".join(names + [self.leaf])
 
     def parse_value(self, value: object, where: str) -> float:
         """A value for this key in SI: a quantity string, or 'free' / 'rigid' for a spring."""

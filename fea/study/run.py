@@ -12,6 +12,7 @@ from .bounds import PlaneBounds, plane_bounds
 from .brace import BraceForce, BraceResult, brace_force, brace_stiffness
 from .paths import parse_key
 from .sensitivity import SpringSensitivity, column_sensitivities
+from .spring_set import is_foundation_kind
 from .target import StudyCase
 
 __all__ = ["CaseSensitivity", "case_sensitivities", "CaseBounds", "case_bounds", "CaseBrace", "case_brace"]
@@ -19,7 +20,8 @@ __all__ = ["CaseSensitivity", "case_sensitivities", "CaseBounds", "case_bounds",
 
 @dataclass(frozen=True)
 class CaseSensitivity:
-    """Sensitivities of every plane; ``tables[i]`` is the [[restraint]] number of ``entries[i]``."""
+    """Sensitivities of every plane; ``tables[i]`` is the [[restraint]] (or [[foundation]], by the entry's
+    ``source``) number of ``entries[i]``."""
 
     entries: tuple[SpringSensitivity, ...]
     tables: tuple[int, ...]
@@ -35,11 +37,17 @@ class CaseSensitivity:
 
 def case_sensitivities(study: StudyCase, check: bool = True) -> CaseSensitivity:
     entries, tables, lams = [], [], {}
+    moduli = study.foundation_keys()
     for axis, col in study.case.planes:
-        rows = column_sensitivities(col, axis=axis, tol=study.case.tolerance, check=check)
+        kinds: dict = {}
+        for key in moduli:  # the moduli the case file gives, as the plane's foundation indices
+            for tg in study.targets(key):
+                if tg.axis == axis:
+                    kinds.setdefault(tg.restraint, []).append(tg.kind)
+        rows = column_sensitivities(col, axis=axis, tol=study.case.tolerance, check=check, foundations=kinds)
         for e in rows:
             entries.append(e)
-            tables.append(study.table_number(axis, e.restraint))
+            tables.append(study.table_number(axis, e.restraint, e.source))
             lams[axis] = e.load_factor
     if not entries:
         raise CaseError("restraint", "the case has no springs")
@@ -74,8 +82,8 @@ def case_bounds(study: StudyCase, ranges) -> CaseBounds:
     per_axis: dict = {a: ([], [], []) for a in study.axes}
     for text, lo, hi in ranges:
         key = parse_key(text)
-        if not key.is_spring:
-            raise CaseError(text, "is not a restraint spring (restraint[i].lateral or restraint[i].rotation)")
+        if not key.is_stiffness:
+            study.targets(key)  # raises: names what can be bounded
         keys.append(key.text)
         lows.append(lo)
         highs.append(hi)
@@ -108,12 +116,16 @@ class CaseBrace:
 
 def case_brace(study: StudyCase, tables, kind: str = "lateral", axis: str | None = None, fraction: float = 0.95,
                eps: float = 1e-6, bow: float = 500.0) -> CaseBrace:
+    """Brace study of the [[restraint]] tables ``tables`` (``kind`` "lateral" or "rotation"), or of the
+    [[foundation]] tables ``tables`` when ``kind`` is a foundation modulus ("modulus", "modulus_bottom",
+    "modulus_top")."""
     tables = tuple(int(t) for t in tables)
+    table = "foundation" if is_foundation_kind(kind) else "restraint"
     axes = study.axes
     if axis is None:
         cands = set()
         for t in tables:
-            cands |= {tg.axis for tg in study.targets(parse_key(f"restraint[{t}].{kind}"))}
+            cands |= {tg.axis for tg in study.targets(parse_key(f"{table}[{t}].{kind}"))}
         if len(cands) > 1:
             raise CaseError("axis", f"the restraints act in planes {', '.join(sorted(cands))}: name one (--axis)")
         axis = cands.pop() if cands else axes[0]
@@ -121,9 +133,9 @@ def case_brace(study: StudyCase, tables, kind: str = "lateral", axis: str | None
         raise CaseError("axis", f"the case has no {axis!r} plane; it has {', '.join(axes)}")
     idx = []
     for t in tables:
-        tgs = [tg for tg in study.targets(parse_key(f"restraint[{t}].{kind}")) if tg.axis == axis]
+        tgs = [tg for tg in study.targets(parse_key(f"{table}[{t}].{kind}")) if tg.axis == axis]
         if not tgs:
-            raise CaseError(f"restraint[{t}]", f"does not act in the {axis} plane")
+            raise CaseError(f"{table}[{t}]", f"does not act in the {axis} plane")
         idx.append(tgs[0].restraint)
     col = study.case.column(axis)
     res = brace_stiffness(col, idx, kind=kind, fraction=fraction, eps=eps, tol=study.case.tolerance, axis=axis)
@@ -135,4 +147,6 @@ def case_brace(study: StudyCase, tables, kind: str = "lateral", axis: str | None
             note = f"brace force not available: {exc}"
     else:
         note = "brace force is given for lateral braces only"
+    if table == "foundation":
+        note = "brace force and the bracing rules are for lateral braces: not given for a foundation modulus"
     return CaseBrace(tables, res, force, note)

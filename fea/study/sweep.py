@@ -2,9 +2,10 @@
 
 Two ways to a point:
 
-* **spring path** - every swept input is a restraint spring.  One parameter:
+* **spring path** - every swept input is a restraint spring or a foundation
+  modulus.  One restraint spring:
   :class:`fea.solve.one_spring.SpringStudy` gives every value from one
-  eigen-decomposition per plane.  Two parameters: :class:`SpringModel` holds one
+  eigen-decomposition per plane.  Otherwise :class:`SpringModel` holds one
   assembled mesh per plane and each grid point costs a few banded Cholesky
   factorisations (inertia bisection); rows of the grid go to the process pool.
 * **re-solve path** - any other input (a length, a load, an I, E...): a copy
@@ -38,7 +39,7 @@ from ..errors import CaseError, FeaError, ModelError
 from ..solve.eigen import buckling
 from ..solve.one_spring import SpringStudy
 from .paths import KeyPath, parse_key
-from .spring_set import SpringModel, converged_level, effective_length_factors
+from .spring_set import SpringModel, converged_level, effective_length_factors, is_foundation_kind, with_stiffness
 from .target import Rebuild, StudyCase, rebuilt
 
 __all__ = ["ParameterRange", "SweepResult", "make_range", "sweep", "reference_stiffness", "SCALES",
@@ -156,6 +157,9 @@ class SweepResult:
     method : "spring" or "re-solve"
     tolerance : mesh tolerance used
     notes : ((flat point index, message), ...) for points that could not be analysed
+    studied_axis : the plane whose K the summary and charts show: the one plane
+        the swept inputs act in, else the plane that governs at most points (it
+        stays the same over the whole range even where the other plane governs)
     """
 
     ranges: tuple[ParameterRange, ...]
@@ -168,6 +172,7 @@ class SweepResult:
     method: str
     tolerance: float
     notes: tuple[tuple[int, str], ...] = ()
+    studied_axis: str = ""
 
     @property
     def shape(self) -> tuple[int, ...]:
@@ -178,6 +183,15 @@ class SweepResult:
         stack = np.stack([self.K[a] for a in self.axes])  # (n_axes, ..., n_chosen)
         idx = self.governing_axis[None, ..., None]
         return np.take_along_axis(stack, np.broadcast_to(idx, (1,) + stack.shape[1:]), axis=0)[0]
+
+    def K_studied(self) -> np.ndarray:
+        """K of the chosen segments in the studied plane at every point, shape (..., n_chosen)."""
+        return self.K[self.studied_axis or self.axes[0]]
+
+    def other_governs(self) -> np.ndarray:
+        """Mask of the points where a plane other than the studied one governs."""
+        i = self.axes.index(self.studied_axis or self.axes[0])
+        return (self.governing_axis != i) & ~np.isnan(self.governing)
 
 
 # ---------------------------------------------------------------------------
@@ -308,7 +322,7 @@ def _resolve_points(rebuild: Rebuild, doc: dict, key_texts: tuple[str, ...], poi
     here once and the springs are set on it; otherwise each point is rebuilt.
     """
     keys = tuple(parse_key(t) for t in key_texts)
-    base = StudyCase(rebuild(doc), rebuild) if all(k.is_spring for k in keys) else None
+    base = StudyCase(rebuild(doc), rebuild) if all(k.is_stiffness for k in keys) else None
     rows_lam, rows_K, notes = [], [], []
     for p, values in enumerate(points):
         try:
@@ -409,7 +423,7 @@ def _sweep_springs(study: StudyCase, ranges, segments, tol, jobs, progress):
         params = sorted({p for p, _ in acting})
         if not params:
             lam[..., ia] = buckling(col, n_modes=1, tol=tol).load_factor
-        elif len(acting) == 1:
+        elif len(acting) == 1 and not is_foundation_kind(acting[0][1].kind):
             p, tg = acting[0]
             vals = _one_spring(col, tg, ranges[p].values, tol)
             if len(ranges) == 1:
@@ -425,7 +439,7 @@ def _sweep_springs(study: StudyCase, ranges, segments, tol, jobs, progress):
             for ends in zip(*corner_vals):
                 c = col
                 for (p, tg), v in zip(acting, ends):
-                    c = c.with_restraint(tg.restraint, **{tg.kind: tg.stiffness(v)})
+                    c = with_stiffness(c, tg.restraint, tg.kind, tg.stiffness(v))
                 try:
                     levels.append(converged_level(c, tol))
                 except FeaError:
@@ -462,7 +476,7 @@ def sweep(study: StudyCase, ranges, segments=None, method: str = "auto", jobs: i
     study : the case (and its rebuild function, for the re-solve path)
     ranges : one or two :class:`ParameterRange`
     segments : segment indices (0-based) whose K to report; default all
-    method : "auto" (spring path when every input is a restraint spring),
+    method : "auto" (spring path when every input is a restraint spring or a foundation modulus),
         "spring" or "re-solve"
     jobs : worker processes (1: serial, in this process)
     progress : optional callback ``progress(done, total)``
@@ -479,14 +493,15 @@ def sweep(study: StudyCase, ranges, segments=None, method: str = "auto", jobs: i
         if not 0 <= s < n_seg:
             raise CaseError("segments", f"segment {s + 1} does not exist (the case has {n_seg})")
     tol = float(tol or study.case.tolerance)
-    all_springs = all(r.key.is_spring for r in ranges)
+    all_springs = all(r.key.is_stiffness for r in ranges)
     if method not in ("auto", "spring", "re-solve"):
         raise CaseError("method", f"expected 'auto', 'spring' or 're-solve', got {method!r}")
     if method == "spring" and not all_springs:
-        raise CaseError("method", "the spring path needs every swept input to be a restraint spring")
+        raise CaseError("method", "the spring path needs every swept input to be a restraint spring or a "
+                                  "foundation modulus")
     use_springs = all_springs and method != "re-solve"
     for r in ranges:  # the key must exist in the case file (or be a spring of an existing restraint)
-        if r.key.is_spring:
+        if r.key.is_stiffness:
             study.targets(r.key)
         else:
             r.key.get(study.case.document)
@@ -501,8 +516,14 @@ def sweep(study: StudyCase, ranges, segments=None, method: str = "auto", jobs: i
         filled = np.where(np.isnan(lam), np.inf, lam)
         gov_idx = np.argmin(filled, axis=1)
         gov = np.take_along_axis(lam, gov_idx[:, None], axis=1)[:, 0]
+    acting = {tg.axis for r in ranges if r.key.is_stiffness for tg in study.targets(r.key)}
+    if len(acting) == 1:
+        studied = acting.pop()
+    else:
+        counts = np.bincount(gov_idx[~np.isnan(gov)], minlength=len(axes))
+        studied = axes[int(np.argmax(counts))]
     return SweepResult(
-        ranges=ranges, axes=axes, segments=segments,
+        studied_axis=studied, ranges=ranges, axes=axes, segments=segments,
         load_factors={a: lam[:, i].reshape(shape) for i, a in enumerate(axes)},
         K={a: K[:, i, :].reshape(shape + (len(segments),)) for i, a in enumerate(axes)},
         governing=gov.reshape(shape), governing_axis=gov_idx.reshape(shape),

@@ -21,6 +21,7 @@ from ..errors import CaseError, FeaError
 from ..model.case import Case
 from ..model.ideal_supports import is_nominal, nominal_rotation_at
 from .paths import KeyPath, parse_key, with_values
+from .spring_set import with_stiffness
 
 __all__ = ["StudyCase", "SpringTarget", "Rebuild", "rebuilt"]
 
@@ -35,8 +36,9 @@ class SpringTarget:
     Attributes
     ----------
     axis : bending plane
-    restraint : index of the restraint in that plane's column (0-based)
-    kind : "lateral" or "rotation"
+    restraint : index of the restraint (or, for a foundation modulus, of the
+        foundation) in that plane's column (0-based)
+    kind : "lateral" or "rotation", or "modulus", "modulus_bottom", "modulus_top"
     offset : stiffness the table adds beyond the key's own value (restraining
         beams of a rotational spring) [N m/rad]
     """
@@ -71,11 +73,33 @@ class StudyCase:
         v = self.case.document.get("restraint", [])
         return [v] if isinstance(v, dict) else list(v)
 
+    def foundation_tables(self) -> list[dict]:
+        v = self.case.document.get("foundation", [])
+        return [v] if isinstance(v, dict) else list(v)
+
+    def _foundation_targets(self, key: KeyPath) -> tuple[SpringTarget, ...]:
+        number = int(key.parts[0][1] or 0)
+        tables = self.foundation_tables()
+        if number > len(tables):
+            raise CaseError(key.text, f"the case file has {len(tables)} [[foundation]] table(s), not {number}")
+        table = tables[number - 1]
+        if key.kind == "modulus" and "modulus" not in table:
+            raise CaseError(key.text, "this [[foundation]] gives modulus_bottom and modulus_top: study those")
+        if key.kind != "modulus" and "modulus" in table:
+            raise CaseError(key.text, "this [[foundation]] gives one uniform modulus: study "
+                                      f"foundation[{number}].modulus")
+        return tuple(SpringTarget(axis=ref.axis, restraint=ref.index, kind=key.kind)
+                     for ref in self.case.origins[f"foundation[{number}]"])
+
     def targets(self, key: KeyPath) -> tuple[SpringTarget, ...]:
-        """The plane springs a spring key drives (one per plane the table applies to)."""
+        """The plane springs a stiffness key drives (one per plane the table applies to)."""
+        if key.is_foundation:
+            return self._foundation_targets(key)
         number = key.restraint_number  # None unless a spring key
         if number is None:
-            raise CaseError(key.text, "is not a restraint spring (restraint[i].lateral or restraint[i].rotation)")
+            raise CaseError(key.text, "is not a restraint spring or a foundation modulus (restraint[i].lateral, "
+                                      "restraint[i].rotation, foundation[i].modulus, foundation[i].modulus_bottom "
+                                      "or foundation[i].modulus_top)")
         tables = self.restraint_tables()
         if number > len(tables):
             raise CaseError(key.text, f"the case file has {len(tables)} [[restraint]] table(s), not {number}")
@@ -93,12 +117,20 @@ class StudyCase:
             out.append(SpringTarget(axis=ref.axis, restraint=ref.index, kind=key.kind, offset=offset))
         return tuple(out)
 
-    def table_number(self, axis: str, restraint: int) -> int:
-        """The [[restraint]] number (1-based) that became restraint ``restraint`` of plane ``axis``."""
-        for table, refs in self.case.origins.items():
-            if table.startswith("restraint[") and any(r.axis == axis and r.index == restraint for r in refs):
-                return int(table[len("restraint["):-1])
+    def table_number(self, axis: str, restraint: int, table: str = "restraint") -> int:
+        """The [[restraint]] (or [[foundation]]) number (1-based) that became item ``restraint`` of plane ``axis``."""
+        for name, refs in self.case.origins.items():
+            if name.startswith(f"{table}[") and any(r.axis == axis and r.index == restraint for r in refs):
+                return int(name[len(table) + 1:-1])
         raise KeyError((axis, restraint))
+
+    def foundation_keys(self) -> tuple[KeyPath, ...]:
+        """Every foundation modulus the case file gives (``modulus``, or the ends it names)."""
+        out = []
+        for i, t in enumerate(self.foundation_tables(), start=1):
+            kinds = ("modulus",) if "modulus" in t else tuple(k for k in ("modulus_bottom", "modulus_top") if k in t)
+            out += [parse_key(f"foundation[{i}].{k}") for k in kinds]
+        return tuple(out)
 
     def spring_keys(self) -> tuple[KeyPath, ...]:
         """Every spring the case file gives (lateral and rotation of each restraint, if not free)."""
@@ -113,10 +145,16 @@ class StudyCase:
         return tuple(out)
 
     def with_springs(self, keys: tuple[KeyPath, ...], values: tuple[float, ...]) -> Case:
-        """The case with each spring key at its SI value: restraints replaced in every plane it drives."""
+        """The case with each stiffness key at its SI value: restraints (foundations) replaced in every plane it
+        drives.  A foundation whose moduli all become 0 is left out of the planes (it adds nothing)."""
         columns = dict(self.case.planes)
-        for key, value in zip(keys, values):
+        # a foundation left with no modulus is removed: set the later foundations first
+        order = sorted(zip(keys, values), key=lambda kv: -(kv[0].table_number or 0) if kv[0].is_foundation else 0)
+        for key, value in order:
             for tg in self.targets(key):
+                if key.is_foundation:
+                    columns[tg.axis] = with_stiffness(columns[tg.axis], tg.restraint, key.kind, value)
+                    continue
                 col = columns[tg.axis].with_restraint(tg.restraint, **{key.kind: tg.stiffness(value)})
                 r = col.restraints[tg.restraint]
                 if r.lateral == 0 and r.rotation == 0:  # as the case-file parser says of such a table
@@ -127,7 +165,7 @@ class StudyCase:
 
     def with_values(self, keys: tuple[KeyPath, ...], values: tuple[float, ...]) -> Case:
         """The case with each key at its SI value (springs on the parsed case; others by :func:`rebuilt`)."""
-        if all(k.is_spring for k in keys):
+        if all(k.is_stiffness for k in keys):
             return self.with_springs(keys, values)
         if self.rebuild is None:
             raise FeaError("changing an input other than a restraint spring needs the case's rebuild function")
@@ -141,8 +179,8 @@ def rebuilt(rebuild: Rebuild, document: Mapping, keys: tuple[KeyPath, ...], valu
     ``rebuild`` parses (every check of the case file applies); springs are
     then set on the rebuilt case by :meth:`StudyCase.with_springs`.
     """
-    plain = [(k, v) for k, v in zip(keys, values) if not k.is_spring]
-    springs = [(k, v) for k, v in zip(keys, values) if k.is_spring]
+    plain = [(k, v) for k, v in zip(keys, values) if not k.is_stiffness]
+    springs = [(k, v) for k, v in zip(keys, values) if k.is_stiffness]
     case = rebuild(with_values(document, tuple(k for k, _ in plain), tuple(v for _, v in plain)))
     if not springs:
         return case

@@ -13,11 +13,15 @@ from __future__ import annotations
 import contextlib
 import io
 import json
+import os
 import sys
 from pathlib import Path
 
 ROOT = Path(__file__).resolve().parents[2]
 sys.path.insert(0, str(ROOT))
+# one BLAS thread, as the tests run (tests/conftest.py): the summation order, and so the last digits, match
+for _var in ("OPENBLAS_NUM_THREADS", "OMP_NUM_THREADS", "MKL_NUM_THREADS"):
+    os.environ.setdefault(_var, "1")
 
 from tests.golden.commands import COMMANDS  # noqa: E402
 
