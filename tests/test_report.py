@@ -7,6 +7,7 @@ import html as html_module
 import math
 import re
 import xml.etree.ElementTree as ET
+from collections.abc import Mapping
 from html.parser import HTMLParser
 from pathlib import Path
 
@@ -152,7 +153,7 @@ def _resolve(root, path: str):
     for part in path.split("/"):
         if isinstance(obj, (list, tuple)):
             obj = obj[int(part)]
-        elif isinstance(obj, dict):
+        elif isinstance(obj, Mapping):  # dicts and read-only views of them
             obj = obj[part]
         else:
             obj = getattr(obj, part)

@@ -64,7 +64,8 @@ def section_blocks(case: Case, u: DisplayUnits) -> list:
                      (SHAPE_WORDS.get(kind, kind.replace("_", " ")),), tuple(dims),
                      (q(info.A, f"{base}/A", u.area),) if info.A is not None else ("—",),
                      (q(info.I_major, f"{base}/I_major", u.inertia),) if info.I_major is not None else ("—",),
-                     (q(info.I_minor, f"{base}/I_minor", u.inertia),) if info.I_minor is not None else ("—",)))
+                     (q(info.I_minor, f"{base}/I_minor", u.inertia),) if info.I_minor is not None else ("—",),
+                     _least_radius(info, base, unit)))
     if not rows:
         return []
     used = sorted({f.name for info in case.segments if info.shape is not None
@@ -74,9 +75,16 @@ def section_blocks(case: Case, u: DisplayUnits) -> list:
         key += ["; " if key else "", *_symbol(name), ": ", DIMENSION_SYMBOLS[name][1]]
     return [Heading(3, "Sections"),
             Table((("No.",), ("Segment",), ("Shape",), (f"Dimensions [{unit_label(unit)}]",), hdr("A", u.area),
-                   hdr("I major", u.inertia), hdr("I minor", u.inertia)), tuple(rows), numeric=(4, 5, 6),
-                  caption=("Dimensions as given; area and second moments of area about the principal axes "
-                           "computed from them. ", *key, "."))]
+                   hdr("I major", u.inertia), hdr("I minor", u.inertia), hdr("r least", unit)), tuple(rows),
+                  numeric=(4, 5, 6, 7),
+                  caption=("Dimensions as given; area, second moments of area about the principal axes and the "
+                           "least radius of gyration computed from them. ", *key, "."))]
+
+
+def _least_radius(info, base: str, unit: str) -> tuple:
+    """The least radius of gyration of a section given by shape, or a dash."""
+    r = (info.properties or {}).get("r_least")
+    return (q(float(r), f"{base}/properties/r_least", unit),) if r is not None else ("—",)
 
 
 _LOAD_ACTION_WORDS = {"eccentricity": "Eccentricity, every plane", "eccentricity_major": "Eccentricity, major axis",

@@ -30,7 +30,7 @@ def _material(case: Case, u: DisplayUnits) -> list:
         rows.append((("Yield strength ", Em("f"), Sub("y")), (q(case.fy, "case:fy", u.stress),),
                      (unit_label(u.stress),)))
     rows.append((("Modes computed per plane",), (Q(case.n_modes, "case:n_modes", "", 6),), ()))
-    rows.append((("Relative tolerance on the lowest load factor",), (q(case.tolerance, "case:tolerance", "", 2),),
+    rows.append((("Relative tolerance on every reported load factor",), (q(case.tolerance, "case:tolerance", "", 2),),
                  ()))
     rows.append((("Bending planes analysed",), (", ".join(a for a, _ in case.planes),), ()))
     return [Heading(3, "Material and analysis"), Table((("Item",), ("Value",), ("Unit",)), tuple(rows), numeric=(1,))]
