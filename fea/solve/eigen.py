@@ -30,7 +30,7 @@ from ..formulas import effective_length_factor
 from ..mesh import Mesh, build_mesh, segment_min_ei
 from ..model import Column
 from ..results import K_AXIAL_RATIO_MIN, K_ENERGY_SHARE_MIN, BucklingResult, SegmentBuckling
-from .solvable import banded_lower, bandwidth, positive_definite, rigid_body_mechanism, scaled_cholesky
+from .solvable import PIVOT_MIN, banded_lower, bandwidth, positive_definite, rigid_body_mechanism, scaled_cholesky
 
 __all__ = ["buckling", "solve_assembled", "roundoff_floor", "short_interval", "DENSE_MAX_DOF", "DEFAULT_TOL",
            "MAX_LEVEL", "MAX_ELEMENTS"]
@@ -191,6 +191,35 @@ CORRECTION_STEPS = 12
 CORRECTION_STOP = 1e-12
 
 
+def _rounded_inverse(asm: Assembled):
+    """``r -> K~^-1 r`` with the factor of the rounded stiffness matrix (scaled to a unit diagonal), or None.
+
+    Small dense systems are factorised with numpy alone (no scipy import for an everyday column); larger
+    ones with the banded factor of :func:`fea.solve.solvable.scaled_cholesky`.
+    """
+    if not asm.is_sparse and asm.n <= NUMPY_MAX_DOF:
+        d = np.asarray(asm.K.diagonal(), dtype=float)
+        if d.size == 0 or not np.all(np.isfinite(d)) or np.any(d <= 0):
+            return None
+        sc = 1.0 / np.sqrt(d)
+        try:
+            L = np.linalg.cholesky(asm.K * sc[:, None] * sc[None, :])
+        except np.linalg.LinAlgError:
+            return None
+        if not np.all(np.isfinite(L)) or float(np.min(np.diag(L) ** 2)) < PIVOT_MIN:
+            return None
+        return lambda r: np.linalg.solve(L.T, np.linalg.solve(L, r * sc)) * sc
+    fac = scaled_cholesky(asm.Ks if asm.is_sparse else asm.K)
+    if fac is None:
+        return None
+    import scipy.linalg as sla
+
+    cb, s, bw = fac
+    ub = _upper_from_lower(cb, bw)
+    return lambda r: sla.solve_banded((0, bw), ub, sla.solve_banded((bw, 0), cb, r * s, check_finite=False),
+                                      check_finite=False) * s
+
+
 def _quotient_load_factors(mesh: Mesh, asm: Assembled, lam: np.ndarray, vec: np.ndarray,
                            floor: float) -> tuple[np.ndarray, np.ndarray, float]:
     """Load factors as Rayleigh quotients, the lowest mode corrected, and the estimated round-off.
@@ -205,22 +234,15 @@ def _quotient_load_factors(mesh: Mesh, asm: Assembled, lam: np.ndarray, vec: np.
     ``eps * (H / L_e)^2``).  A mode held mainly by springs (a near-mechanism) keeps the matrix
     estimate ``floor``: there the springs, not the members, limit the accuracy.
     """
-    import scipy.linalg as sla
-
     with np.errstate(all="ignore"):
         q, share = rayleigh_quotients(mesh, asm, vec)
         if not (np.isfinite(q[0]) and q[0] > 0):
             return lam, vec, floor
-        fac = scaled_cholesky(asm.Ks if asm.is_sparse else asm.K)
+        solve = _rounded_inverse(asm)
         v, q0, change = vec[:, 0].copy(), float(q[0]), 1.0
-        if fac is not None:
-            cb, s, bw = fac
-            ub = _upper_from_lower(cb, bw)
+        if solve is not None:
             for _ in range(CORRECTION_STEPS):
-                r = residual(mesh, asm, v, q0) * s
-                dv = sla.solve_banded((0, bw), ub, sla.solve_banded((bw, 0), cb, r, check_finite=False),
-                                      check_finite=False) * s
-                v_new = v - dv
+                v_new = v - solve(residual(mesh, asm, v, q0))
                 q_new = float(rayleigh_quotients(mesh, asm, v_new[:, None])[0][0])
                 if not (np.isfinite(q_new) and q_new > 0):
                     break
