@@ -168,3 +168,51 @@ def test_sizing_names_a_chosen_section_that_the_sway_sensitivity_leaves_not_veri
     assert chosen["design"]["verdict"] == "not verified"
     assert all(c["design"] is None or c["design"]["verdict"] in ("passes", "fails", "not verified")
                for c in data["candidates"])
+
+
+# -- members that may twist: never "passes" on a planar check alone (issue 14's field finding) --------------
+
+TEE_STRUT = """
+title = "Tee strut (invented)"
+[units]
+length = "m"
+force = "kN"
+[material]
+E = "210 GPa"
+fy = "355 MPa"
+[[segment]]
+name = "strut"
+length = "2.5 m"
+section = {{ shape = "{shape}", {dims} }}
+[[restraint]]
+at = "base"
+lateral = "rigid"
+[[restraint]]
+at = "top"
+lateral = "rigid"
+[[load]]
+at = "top"
+axial = "150 kN"
+[design]
+standard = "EN 1993-1-1"
+curve = "c"
+"""
+
+
+@pytest.mark.parametrize("shape, dims, verdict", [
+    # a tee's shear centre is off its centroid: flexural-torsional buckling (EN 1993-1-1 6.3.1.4) is not checked
+    ("tee", 'b = "150 mm", h = "150 mm", tf = "8 mm", tw = "6 mm"', "not verified"),
+    # a doubly symmetric I section: the planar checks are the member checks
+    ("i_section", 'b = "150 mm", h = "150 mm", tf = "8 mm", tw = "6 mm"', "passes"),
+])
+def test_open_sections_that_twist_are_not_verified_by_planar_checks(shape, dims, verdict, tmp_path):
+    path = tmp_path / "strut.toml"
+    path.write_text(TEE_STRUT.format(shape=shape, dims=dims), encoding="utf-8")
+    out = run_cli("check", str(path), "--json", "-")
+    data = json.loads(out.stdout)
+    assert data["design"]["passed"] and data["design"]["verdict"] == verdict
+    assert out.returncode == (0 if verdict == "passes" else 1)
+    if verdict == "not verified":
+        assert "flexural-torsional" in data["design"]["unchecked"][0] and "6.3.1.4" in data["design"]["unchecked"][0]
+    else:
+        assert "unchecked" not in data["design"]

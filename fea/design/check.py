@@ -182,6 +182,8 @@ class DesignResult:
     checks : every check, segment by segment (compression per axis, then tension)
     notes : statements that apply to the whole check
     sway : per plane, the sway sensitivity (:func:`fea.design.sway.classify_sway`); empty when not classified
+    unchecked : ways the member may fail that these checks do not cover (plain sentences, each naming the
+        segment and the missing check); any makes a passing member "not verified"
     """
 
     standard: str
@@ -189,6 +191,7 @@ class DesignResult:
     checks: tuple[DesignCheck, ...]
     notes: tuple[str, ...] = ()
     sway: tuple[SwayClass, ...] = ()
+    unchecked: tuple[str, ...] = ()
 
     @property
     def governing(self) -> DesignCheck:
@@ -207,12 +210,13 @@ class DesignResult:
     @property
     def verdict(self) -> str:
         """"passes", "fails" (a check fails, or a plane buckles below the design loads) or "not verified"
-        (every check passes but a plane's sway sensitivity says the axial check alone is not enough)."""
+        (every check passes but a plane's sway sensitivity says the axial check alone is not enough, or the
+        member may fail in a way the checks do not cover: :attr:`unchecked`)."""
         # a plane buckling below the design loads, or below the case loads (alpha_cr x load factor < 1), fails
         if not self.passed or any(s.classification == BUCKLES or s.alpha_cr * self.load_factor < 1.0
                                   for s in self.sway):
             return "fails"
-        if any(not s.axial_check_enough for s in self.sway):
+        if any(not s.axial_check_enough for s in self.sway) or self.unchecked:
             return "not verified"
         return "passes"
 

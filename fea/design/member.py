@@ -98,4 +98,22 @@ def design_of_case(case: Case, results: Sequence[BucklingResult], spec: DesignSp
     # design loads is the plane's lowest load factor on the case loads divided by it
     sway = tuple(classify_sway(spec.standard, r.axis or a, r.load_factor / spec.load_factor, sways(c))
                  for r, (a, _), c in zip(results, case.planes, cols))
-    return replace(result, sway=sway)
+    return replace(result, sway=sway, unchecked=unchecked_modes(case, forces))
+
+
+#: Section shapes whose shear centre lies off the centroid: in compression they may buckle by bending and
+#: twisting together (flexural-torsional buckling, EN 1993-1-1 6.3.1.4, AISC 360 E4), which the planar
+#: analysis and the checks built on it do not cover.
+TWISTING_SHAPES = {"tee": "tee", "angle": "angle", "channel": "channel"}
+
+
+def unchecked_modes(case: Case, forces: Sequence[SegmentForces]) -> tuple[str, ...]:
+    """Ways a segment in compression may fail that the axial checks do not cover, one plain sentence each."""
+    out = []
+    for i, (info, f) in enumerate(zip(case.segments, forces)):
+        kind = getattr(type(info.shape), "kind", "") if info.shape is not None else ""
+        if kind in TWISTING_SHAPES and f.compression > 0:
+            out.append(f"segment {i + 1} ('{info.name}'): a {TWISTING_SHAPES[kind]} section in compression may "
+                       "buckle by bending and twisting together (flexural-torsional buckling, EN 1993-1-1 "
+                       "6.3.1.4, AISC 360 E4), which these checks do not cover")
+    return tuple(out)

@@ -69,14 +69,20 @@ def design_json(r: DesignResult) -> dict[str, Any]:
         out["sway"] = [{"axis": w.axis, "alpha_cr": _num(w.alpha_cr), "amplification": _num(w.amplification),
                         "classification": w.classification, "axial_check_enough": w.axial_check_enough,
                         "reason": w.reason, "source": w.source} for w in r.sway]
+    if r.unchecked:
+        out["unchecked"] = list(r.unchecked)
     return out
 
 
 def verdict_line(r: DesignResult) -> str:
     """The verdict in plain words: PASSES, FAILS or NOT VERIFIED with what is missing."""
     if r.verdict == "not verified":
-        return ("Verdict: NOT VERIFIED - every axial check passes, but the sway sensitivity needs more: "
-                "a second-order analysis with imperfections, or the member check with bending (not yet offered)")
+        missing = []
+        if any(not w.axial_check_enough for w in r.sway):
+            missing.append("the sway sensitivity needs more: a second-order analysis with imperfections, or the member "
+                           "check with bending (not yet offered)")
+        missing.extend(r.unchecked)
+        return "Verdict: NOT VERIFIED - every axial check passes, but " + "; ".join(missing)
     if r.verdict == "fails" and r.passed:
         return "Verdict: FAILS - the column buckles elastically below the design loads (alpha_cr < 1)"
     return f"Verdict: {r.verdict.upper()}"
@@ -113,7 +119,9 @@ def design_summary(r: DesignResult, d: DisplayUnits) -> list[str]:
             out.append(f"  {w.axis} axis: alpha_cr {w.alpha_cr:.3g}{amp}: {w.classification}")
             if not w.axial_check_enough:
                 out.append(f"    ({w.reason})")
-        if r.verdict != ("passes" if r.passed else "fails"):
+        if r.verdict != ("passes" if r.passed else "fails") and not r.unchecked:
             out.append(verdict_line(r))
+    if r.unchecked:
+        out.append(verdict_line(r))
     out.append(f"  {DESIGN_CAUTION.split(CAUTION)[0].strip()}")
     return out

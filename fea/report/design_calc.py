@@ -94,7 +94,9 @@ def design_blocks(part: dict, u) -> list:
     blocks: list = []
     verdict = "every check passes" if part.get("passed") else "at least one check FAILS"
     if part.get("verdict") == "not verified":
-        verdict = "every axial check passes, but the member is NOT VERIFIED (see the sway sensitivity below)"
+        verdict = ("every axial check passes, but the member is NOT VERIFIED ("
+                   + ("see the sway sensitivity below" if not part.get("unchecked") else
+                      "failure modes not covered: " + "; ".join(part["unchecked"])) + ")")
     elif part.get("verdict") == "fails" and part.get("passed"):
         verdict = "the column buckles elastically below its loads: the design FAILS"
     where: tuple = ()

@@ -85,7 +85,11 @@ def brief_blocks(res: CaseResults, parts: list[Part]) -> list:
     design: Any = res.extras.get("design")
     if design is not None and design.sway:
         brief.append(Para(("Design check (", T(design.standard, "json:design/standard"), "): verdict ",
-                           T(design.verdict, "json:design/verdict"), ". ", _MISSING.get(design.verdict, ""))))
+                           T(design.verdict, "json:design/verdict"), ". ",
+                           "" if design.unchecked and all(w.axial_check_enough for w in design.sway)
+                           else _MISSING.get(design.verdict, ""))))
+        brief.extend(Para(("Not covered by the checks: ", T(u, f"json:design/unchecked/{i}"), "."))
+                     for i, u in enumerate(design.unchecked))
         brief.extend(Para(("Sway sensitivity, ", T(w.axis, f"json:design/sway/{i}/axis"), " axis: α_cr ",
                            q(w.alpha_cr, f"json:design/sway/{i}/alpha_cr", "", 3), ", ",
                            T(w.classification, f"json:design/sway/{i}/classification"), "."))
