@@ -379,6 +379,7 @@ def test_shapes_by_name():
         "channel": dict(b=0.09, h=0.3, tf=0.015, tw=0.009, r=0.015),
         "angle": dict(b=0.1, d=0.08, t=0.008, r=0.01),
         "tee": dict(b=0.15, h=0.15, tf=0.01, tw=0.007, r=0.01),
+        "cruciform": dict(b=0.3, h=0.2, tf=0.01, tw=0.008, r=0.01),
     }
     assert set(dims) == set(SHAPES)
     for name, kw in dims.items():

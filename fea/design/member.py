@@ -101,10 +101,10 @@ def design_of_case(case: Case, results: Sequence[BucklingResult], spec: DesignSp
     return replace(result, sway=sway, unchecked=unchecked_modes(case, forces))
 
 
-#: Section shapes whose shear centre lies off the centroid: in compression they may buckle by bending and
-#: twisting together (flexural-torsional buckling, EN 1993-1-1 6.3.1.4, AISC 360 E4), which the planar
-#: analysis and the checks built on it do not cover.
-TWISTING_SHAPES = {"tee": "tee", "angle": "angle", "channel": "channel"}
+#: Section shapes that may buckle by twisting in compression: those whose shear centre lies off the centroid
+#: (bending and twisting together) and the cruciform (pure torsional buckling, its warping stiffness being
+#: small): EN 1993-1-1 6.3.1.4, AISC 360 E4.  The planar analysis and the checks built on it do not cover it.
+TWISTING_SHAPES = {"tee": "tee", "angle": "angle", "channel": "channel", "cruciform": "cruciform"}
 
 
 def unchecked_modes(case: Case, forces: Sequence[SegmentForces]) -> tuple[str, ...]:
@@ -114,6 +114,7 @@ def unchecked_modes(case: Case, forces: Sequence[SegmentForces]) -> tuple[str, .
         kind = getattr(type(info.shape), "kind", "") if info.shape is not None else ""
         if kind in TWISTING_SHAPES and f.compression > 0:
             out.append(f"segment {i + 1} ('{info.name}'): a {TWISTING_SHAPES[kind]} section in compression may "
-                       "buckle by bending and twisting together (flexural-torsional buckling, EN 1993-1-1 "
+                       f"buckle by {'twisting' if kind == 'cruciform' else 'bending and twisting together'} "
+                       f"({'torsional' if kind == 'cruciform' else 'flexural-torsional'} buckling, EN 1993-1-1 "
                        "6.3.1.4, AISC 360 E4), which these checks do not cover")
     return tuple(out)

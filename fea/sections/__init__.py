@@ -45,6 +45,7 @@ from .shapes import (
     Angle,
     Channel,
     CircularHollow,
+    Cruciform,
     FlangedShape,
     ISection,
     Rectangle,
@@ -52,6 +53,7 @@ from .shapes import (
     Round,
     Tee,
 )
+from .thinwall import OpenProfile, OpenProfileResult, TorsionConstants
 
 __all__ = [
     "SectionProperties",
@@ -67,5 +69,9 @@ __all__ = [
     "Channel",
     "Angle",
     "Tee",
+    "Cruciform",
+    "TorsionConstants",
+    "OpenProfile",
+    "OpenProfileResult",
     "SHAPES",
 ]

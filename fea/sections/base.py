@@ -19,6 +19,7 @@ import numpy as np
 from fea.errors import ModelError
 
 from .geometry import Region
+from .thinwall import OpenProfile, TorsionConstants
 
 __all__ = ["Axis", "SectionProperties", "FibreSet", "Shape", "positive", "non_negative", "require"]
 
@@ -217,6 +218,54 @@ class Shape(abc.ABC):
     @abc.abstractmethod
     def torsion_constant(self) -> float:
         """St Venant torsion constant J [m^4]."""
+
+    def midline(self) -> OpenProfile | None:
+        """The thin-walled mid-line model of an open shape, ``None`` for solid and closed shapes."""
+        return None
+
+    def _warping(self) -> tuple[float, float, float]:
+        """Warping constant I_w [m^6] and the shear centre (y, z) [m] in the shape's coordinates.
+
+        Open shapes: the thin-walled integration of :meth:`midline`
+        (:mod:`fea.sections.thinwall`), primary plus secondary warping.  Solid
+        and closed shapes: ``I_w = 0`` (neglected; their warping resistance is
+        negligible next to ``G J``) and the shear centre at the centroid, as
+        for every doubly symmetric section.
+        """
+        prof = self.midline()
+        if prof is None:
+            _, yc, zc, *_ = self._moments()
+            return 0.0, yc, zc
+        r = prof.analyse()
+        return r.I_w, r.y_s, r.z_s
+
+    def torsion(self) -> TorsionConstants:
+        """Torsion, warping and shear-centre constants of the section (SI).
+
+        ``J`` is :meth:`torsion_constant`; ``I_w`` and the shear centre come
+        from :meth:`_warping`; the Wagner integral ``integral q (p^2 + q^2) dA``
+        of ``beta_major`` is integrated exactly over the outline (fillets
+        included).  Axes and signs: :class:`~fea.sections.thinwall.TorsionConstants`.
+
+        Returns
+        -------
+        TorsionConstants
+        """
+        A, yc, zc, _, _, _, I1, I2, theta = self._principal()
+        Iw, ys, zs = self._warping()
+        ct, st = math.cos(theta), math.sin(theta)
+        dy, dz = ys - yc, zs - zc
+        y0, z0 = dy * ct + dz * st, -dy * st + dz * ct
+        scale = math.sqrt(A)
+        y0 = 0.0 if abs(y0) < 1e-12 * scale else y0
+        z0 = 0.0 if abs(z0) < 1e-12 * scale else z0
+        u, v, w = self._frame("major").nodes()
+        # integral over the region of v (u^2 + v^2) dA = closed integral of (u^3 v / 3 + u v^3) dv
+        wagner = float(np.sum(w * (u**3 * v / 3.0 + u * v**3)))
+        beta = wagner / I1 - 2.0 * z0
+        beta = 0.0 if abs(beta) < 1e-10 * scale else beta
+        return TorsionConstants(J=self.torsion_constant(), I_w=Iw, y0=y0, z0=z0,
+                                i0=math.sqrt((I1 + I2) / A + y0**2 + z0**2), beta_major=beta)
 
     def _check_lengths(self, *names: str, optional: tuple[str, ...] = ()) -> None:
         """Each of ``names`` is a positive length, each of ``optional`` a non-negative one."""
