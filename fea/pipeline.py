@@ -30,10 +30,11 @@ from .io.fixity_output import fixity_json, fixity_summary
 from .io.imperfect_input import parse_imperfection, parse_lateral
 from .io.imperfect_output import imperfect_json, imperfect_summary
 from .io.record_input import parse_record
+from .io.spatial_output import spatial_json, spatial_summary
 from .io.study_input import parse_study
 from .io.summary import summary_lines
 from .model.case import Case
-from .report.parts import DESIGN_PART, FIXITY_PART, IMPERFECT_PART, OptionalPart
+from .report.parts import DESIGN_PART, FIXITY_PART, IMPERFECT_PART, SPATIAL_PART, OptionalPart
 from .results import BucklingResult, CaseResults
 from .solve.eigen import buckling
 
@@ -58,6 +59,15 @@ def _run_fixity(case: Case, buckling_results: tuple[BucklingResult, ...]):
     from .solve.fixity import case_fixity
 
     return case_fixity(case.planes, buckling_results) or None
+
+
+def _run_spatial(case: Case, buckling_results: tuple[BucklingResult, ...]):
+    from .io.case import spatial_inputs
+    from .solve.spatial_case import run_spatial  # the kernel loads only for a case with sections in two planes
+
+    if len(case.planes) != 2 or any(s.shape is None for s in case.segments):
+        return None
+    return run_spatial(case, buckling_results, spatial_inputs(case))
 
 
 def _run_imperfect(case: Case, buckling_results: tuple[BucklingResult, ...]):
@@ -98,6 +108,7 @@ def _design_figures(result, display, case: Case) -> dict:
 #: The analyses ``check`` and ``report`` run after the elastic buckling of every plane, in this order.
 ANALYSES: tuple[Analysis, ...] = (
     Analysis("fixity", {}, _run_fixity, fixity_json, fixity_summary, None, FIXITY_PART),
+    Analysis("spatial", {}, _run_spatial, spatial_json, spatial_summary, None, SPATIAL_PART),
     Analysis("imperfect", {"imperfection": parse_imperfection, "lateral": parse_lateral}, _run_imperfect,
              imperfect_json, imperfect_summary, _imperfect_figures, IMPERFECT_PART),
     Analysis("design", {"design": parse_design}, _run_design, design_json, design_summary, _design_figures,

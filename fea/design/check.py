@@ -350,3 +350,4 @@ def design_check(spec: DesignSpec, members: Sequence[MemberData], forces: Sequen
     if not checks:
         raise ModelError("load", "no segment carries axial force: nothing to design")
     return DesignResult(standard=spec.standard, load_factor=lf, checks=tuple(checks), notes=tuple(notes))
+

@@ -28,13 +28,15 @@ from ..model import Column, DistributedLoad, Foundation, LeaningLoad, PointLoad,
 from ..model.case import Case, LoadInfo, SegmentInfo, TableRef
 from ..model.column import member_force_loads
 from ..model.ideal_supports import NOMINAL_FIXITIES, is_nominal, nominal_rotation_at
+from ..solve.spatial_case import DEFAULT_NU, RestraintTorsion, SpatialInputs
 from ..units import DisplayUnits, parse
 from ..util.checks import as_text
 from .limits import MAX_CASE_BYTES, MAX_MODES, check_counts, read_limited
 from .section_input import parse_section
 from .tables import AXES, Stations, as_bool, as_str, as_table, as_tables, axes, check_keys, positive, spring
 
-__all__ = ["load_case", "parse_case", "parse_document", "AXES", "TOP_KEYS", "LOAD_KEYS", "TableParser"]
+__all__ = ["load_case", "parse_case", "parse_document", "spatial_inputs", "AXES", "TOP_KEYS", "LOAD_KEYS",
+           "TableParser"]
 
 DEFAULT_MODES = 3
 DEFAULT_TOLERANCE = 1e-6
@@ -57,6 +59,8 @@ LOAD_KEYS = {"at", "axial", "permanent", "eccentricity", "eccentricity_major", "
              "note"}
 #: [[load]] keys that imply a second-order analysis of the loaded column.
 LOAD_ACTION_KEYS = {"eccentricity", "eccentricity_major", "eccentricity_minor", "lateral"}
+#: Keys of a [[restraint]]; twist, warping and offset are read only by the thin-walled (spatial) analysis.
+RESTRAINT_KEYS = {"at", "axis", "lateral", "rotation", "beam", "note", "twist", "warping", "offset"}
 SEGMENT_KEYS = {"length", "E", "fy", "I", "I_major", "I_minor", "I_top", "I_major_top", "I_minor_top",
                 "taper_exponent", "A", "S", "S_major", "S_minor", "name", "section", "axial_force",
                 "axial_force_permanent"}
@@ -179,7 +183,8 @@ def _analysis_options(doc: dict) -> tuple[int, float]:
 
 def _material(doc: dict) -> tuple[float | None, float | None, dict]:
     material = as_table(doc.get("material", {}), "material")
-    check_keys(material, "material", {"E", "fy", "fu", "name", "sigma_allow"})
+    check_keys(material, "material", {"E", "fy", "fu", "name", "sigma_allow", "G", "nu"})
+    _shear_modulus(material)
     E = positive("material.E", material["E"], "stress") if "E" in material else None
     fy = positive("material.fy", material["fy"], "stress") if "fy" in material else None
     mat: dict[str, Any] = {"name": as_str(material.get("name", ""), "material.name")}
@@ -311,12 +316,13 @@ def _restraints(doc: dict, station: Stations, planes: tuple[str, ...], E: float 
     rest: dict[str, list[Restraint]] = {a: [] for a in planes}
     for i, t in enumerate(as_tables(doc, "restraint")):
         p = f"restraint[{i + 1}]"
-        check_keys(t, p, {"at", "axis", "lateral", "rotation", "beam", "note"})
+        check_keys(t, p, RESTRAINT_KEYS)
         if "at" not in t:
             raise CaseError(f"{p}.at", "missing: give 'base', 'top' or a height such as '2.1 m'")
         at = station(t["at"], f"{p}.at")
         ax = axes(t.get("axis"), f"{p}.axis", planes)
         lateral = spring(f"{p}.lateral", t.get("lateral", "free"), "translational stiffness")
+        torsion = _restraint_torsion(t, p, at, ax, lateral)
         raw_rotation = t.get("rotation", "free")
         nominal = is_nominal(raw_rotation)
         if isinstance(raw_rotation, str) and "nominal" in raw_rotation.lower() and not nominal:
@@ -335,6 +341,9 @@ def _restraints(doc: dict, station: Stations, planes: tuple[str, ...], E: float 
             by_plane = {a: rotation + _nominal_rotation(raw_rotation, f"{p}.rotation", at, station.H,
                                                         parsed, a) for a in ax}
         elif lateral == 0 and rotation == 0:
+            if torsion.twist is not None or torsion.warping:
+                origins[p] = ()  # holds only the twist or the warping: read by the spatial analysis alone
+                continue
             raise CaseError(p, "restrains nothing: give lateral and/or rotation")
         origins[p] = tuple(TableRef(a, "restraints", len(rest[a])) for a in ax)
         for a in ax:
@@ -344,6 +353,51 @@ def _restraints(doc: dict, station: Stations, planes: tuple[str, ...], E: float 
         raise CaseError("restraint", "no [[restraint]] and no [[foundation]] given: the column is unsupported; "
                                      "give a [[restraint]], or a [[foundation]] for a column held by the ground")
     return rest
+
+
+def _restraint_torsion(t: dict, p: str, at: float, ax: tuple[str, ...], lateral: float) -> RestraintTorsion:
+    """The twist, warping and offset keys of a [[restraint]] (SI); the planar analysis ignores them."""
+    twist = spring(f"{p}.twist", t["twist"], "rotational stiffness") if "twist" in t else None
+    raw = t.get("warping", "free")
+    if not isinstance(raw, str) or raw.strip().lower() not in ("fixed", "free"):
+        raise CaseError(f"{p}.warping", f"expected 'fixed' (warping prevented) or 'free', got {raw!r}")
+    offset = None
+    if "offset" in t:
+        offset = parse(f"{p}.offset", t["offset"], "length")
+        if len(ax) != 1:
+            raise CaseError(f"{p}.offset", "needs axis = 'major' or 'minor': the offset is measured along the "
+                                           "other principal axis from the restrained plane's")
+        if lateral == 0:
+            raise CaseError(f"{p}.offset", "given, but the restraint holds no lateral movement: give lateral")
+    return RestraintTorsion(table=p, at=at, axes=ax, twist=twist, warping=raw.strip().lower() == "fixed",
+                            offset=offset)
+
+
+def _shear_modulus(material: dict) -> tuple[float | None, float]:
+    """[material] G (shear modulus [Pa]) or nu (Poisson's ratio, default :data:`DEFAULT_NU`): not both."""
+    if "G" in material and "nu" in material:
+        raise CaseError("material.nu", "give either G or nu, not both (G = E / (2 (1 + nu)))")
+    G = positive("material.G", material["G"], "stress") if "G" in material else None
+    nu = material.get("nu", DEFAULT_NU)
+    if isinstance(nu, bool) or not isinstance(nu, (int, float)) or not 0.0 <= nu < 0.5:
+        raise CaseError("material.nu", f"expected Poisson's ratio, a number from 0 to below 0.5, got {nu!r}")
+    return G, float(nu)
+
+
+def spatial_inputs(case: Case) -> SpatialInputs:
+    """What the thin-walled (spatial) analysis reads from the case document beyond the planar columns: the shear
+    modulus or Poisson's ratio, and the twist, warping and offset of every [[restraint]] (SI)."""
+    doc = dict(case.document)
+    G, nu = _shear_modulus(as_table(doc.get("material", {}), "material"))
+    planes = tuple(a for a, _ in case.planes)
+    station = Stations(case.height)
+    out = []
+    for i, t in enumerate(as_tables(doc, "restraint")):
+        p = f"restraint[{i + 1}]"
+        ax = axes(t.get("axis"), f"{p}.axis", planes)
+        lateral = spring(f"{p}.lateral", t.get("lateral", "free"), "translational stiffness")
+        out.append(_restraint_torsion(t, p, station(t["at"], f"{p}.at"), ax, lateral))
+    return SpatialInputs(G=G, nu=nu, restraints=tuple(out))
 
 
 def _nominal_rotation(word: str, path: str, at: float, H: float, parsed: list[_SegmentInput], axis: str) -> float:

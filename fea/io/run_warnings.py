@@ -85,6 +85,11 @@ def run_notices(res: CaseResults) -> list[Notice]:
             out.append(Notice(BUCKLES_DESIGN, f"{w.axis} axis: alpha_cr {w.alpha_cr:.4g} is below 1: the column "
                                               "buckles elastically under the design loads (case loads x "
                                               f"{design.load_factor:g})", w.axis))
+    spatial: Any = res.extras.get("spatial")
+    if spatial is not None and spatial.ran and spatial.load_factor < 1.0:
+        out.append(Notice(BUCKLES_CASE, f"thin-walled analysis: the lowest load factor {spatial.load_factor:.4g} "
+                                        f"({spatial.kind}) is below 1: the column buckles elastically under its case "
+                                        "loads", "spatial"))
     imperfect: Any = res.extras.get("imperfect") or {}
     for axis, ir in imperfect.items():
         if ir.status != "ok":

@@ -18,13 +18,14 @@ from .blocks import svg_of
 from .buckling import buckling_part
 from .closing import closing_part
 from .design import design_figures, design_part_blocks
-from .document import Figure, Part, Table
+from .document import Figure, Heading, Part, Table
 from .fixity import fixity_blocks, fixity_figures
 from .imperfect import imperfect_blocks, imperfect_figures
 from .inputs import inputs_part
 from .method import method_part
+from .spatial import spatial_blocks, spatial_figures
 
-__all__ = ["OptionalPart", "FIXITY_PART", "IMPERFECT_PART", "DESIGN_PART", "report_parts"]
+__all__ = ["OptionalPart", "FIXITY_PART", "SPATIAL_PART", "IMPERFECT_PART", "DESIGN_PART", "report_parts"]
 
 
 @dataclass(frozen=True)
@@ -38,16 +39,22 @@ class OptionalPart:
     figures : (result, display units) -> (matplotlib Figure or SVG text, caption) pairs
     figures_after_table : place the figures after the part's first table (beside the summary they draw)
         rather than at its end
+    within : the key of a part this one is a section of (its title then a sub-heading at that part's end),
+        or "" for a part of its own
     """
 
     title: str
     blocks: Callable[[Any, DisplayUnits], list]
     figures: Callable[[Any, DisplayUnits], list]
     figures_after_table: bool = False
+    within: str = ""
 
 
 #: The part of the depth of fixity (columns held by a foundation).
 FIXITY_PART = OptionalPart("Depth of fixity", fixity_blocks, fixity_figures)
+#: The part of the thin-walled (spatial) buckling of a case with sections in two planes.
+#: A section of the elastic critical buckling part.
+SPATIAL_PART = OptionalPart("Thin-walled buckling", spatial_blocks, spatial_figures, within="buckling")
 #: The part of the imperfect-column analysis.
 IMPERFECT_PART = OptionalPart("Imperfect column", imperfect_blocks, imperfect_figures)
 #: The part of the design check.
@@ -87,6 +94,11 @@ def report_parts(res: CaseResults, u: DisplayUnits, sketch: str | None, mode_fig
     parts = [inputs_part(res.case, u, sketch, design), method_part(res), buckling_part(res, u, mode_figures)]
     for name, spec in optional.items():
         if name in res.extras:
-            parts.append(_optional_part(name, spec, res.extras[name], u, figures))
+            part = _optional_part(name, spec, res.extras[name], u, figures)
+            host = next((p for p in parts if spec.within and p.key == spec.within), None)
+            if host is None:
+                parts.append(part)
+            else:
+                host.blocks.extend([Heading(3, part.title), *part.blocks])
     parts.append(closing_part(warnings, res))
     return parts

@@ -1,0 +1,208 @@
+"""The thin-walled (spatial) buckling of a case: its two planar columns and sections -> a :class:`SpatialColumn`.
+
+A case with two bending planes whose every segment has a section shape is also analysed as one thin-walled
+member (:func:`fea.solve.spatial.spatial_buckling`): flexural, torsional and flexural-torsional modes together.
+Axes (``docs/spatial.md``): the spatial ``u`` moves along the major axis ``y`` and bends about the *minor* axis,
+so the case's minor-axis restraints act on ``u`` (and ``u'``), its major-axis restraints on ``v`` (and ``v'``).
+
+* Segments: ``A``, ``I_major``, ``I_minor`` and ``E`` of the planar columns; ``J``, ``I_w``, the shear centre and
+  the monosymmetry constant from ``shape.torsion()`` (``docs/sections.md``); ``G`` given, or
+  ``E / (2 (1 + nu))`` (common practice for steel, ``nu = 0.3`` unless given).
+* Restraints: the planar restraints (lateral and rotation springs, beams and nominal fixities as the planar
+  analysis took them) on the shear-centre axis; a restraint with an ``offset`` holds the point at that distance
+  from the centroid along the other principal axis; ``twist`` and ``warping`` as given.  Without ``twist`` a
+  station is held against twist ("rigid") where the restraints without offset hold both planes rigidly
+  against lateral movement (a fork support: twist held, warping free), and free elsewhere.
+* Loads: the axial point loads of the case (variable and permanent) at the centroid.
+
+Not covered (the analysis is skipped with a note): distributed axial loads, foundations, leaning loads,
+tapered segments and shear flexibility.
+"""
+
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass
+from typing import TYPE_CHECKING, Any, Sequence
+
+from ..errors import ModelError, SolverError
+from ..model import STATION_TOL
+from ..model.case import Case
+from ..results import BucklingResult
+from .spatial_model import AxialLoad, OffsetRestraint, SpatialColumn, SpatialRestraint, SpatialSegment
+
+if TYPE_CHECKING:
+    from .spatial import SpatialResult
+
+__all__ = ["DEFAULT_NU", "RestraintTorsion", "SpatialInputs", "SpatialCase", "spatial_column", "run_spatial",
+           "NOT_COVERED"]
+
+#: Poisson's ratio when the case gives neither G nor nu (common practice for steel): G = E / (2 (1 + nu)).
+DEFAULT_NU = 0.3
+
+#: The start of the note of a case the spatial analysis does not cover.
+NOT_COVERED = "not covered"
+
+
+@dataclass(frozen=True)
+class RestraintTorsion:
+    """The keys of one ``[[restraint]]`` read only by the spatial analysis (SI).
+
+    ``twist``: torsional spring [N m/rad] (``inf`` rigid, 0 free) or None when not given (the default rule);
+    ``warping``: True when warping is prevented; ``offset``: the distance [m] from the centroid, along the other
+    principal axis, of the point the table's lateral restraint holds, or None (the shear-centre axis).
+    """
+
+    table: str
+    at: float
+    axes: tuple[str, ...]
+    twist: float | None = None
+    warping: bool = False
+    offset: float | None = None
+
+
+@dataclass(frozen=True)
+class SpatialInputs:
+    """The spatial analysis's own inputs: ``G`` [Pa] (None: from ``nu``), ``nu``, and per [[restraint]] its
+    :class:`RestraintTorsion`, in file order."""
+
+    G: float | None = None
+    nu: float = DEFAULT_NU
+    restraints: tuple[RestraintTorsion, ...] = ()
+
+
+@dataclass(frozen=True)
+class SpatialCase:
+    """The spatial buckling of a case.
+
+    ``result`` is None when the case is not covered or the analysis failed (``note`` says why);
+    ``planar_load_factor`` and ``planar_axis`` are the lowest of the two planar analyses.
+    """
+
+    result: "SpatialResult | None"
+    note: str
+    segment_names: tuple[str, ...]
+    planar_load_factor: float
+    planar_axis: str
+    column: SpatialColumn | None = None
+
+    @property
+    def ran(self) -> bool:
+        return self.result is not None and self.result.load_factors.size > 0
+
+    @property
+    def load_factor(self) -> float:
+        """The lowest spatial load factor (NaN when the analysis did not run)."""
+        return float(self.result.load_factors[0]) if self.ran and self.result is not None else math.nan
+
+    @property
+    def kind(self) -> str:
+        return self.result.kinds[0] if self.ran and self.result is not None else ""
+
+    @property
+    def governs(self) -> bool:
+        """Whether the lowest spatial load factor is below the lower planar one (beyond the solver tolerance)."""
+        if not self.ran or self.result is None:
+            return False
+        tol = max(10 * self.result.tolerance, 1e-9)
+        return self.load_factor < self.planar_load_factor * (1 - tol)
+
+
+def _not_covered(case: Case) -> str:
+    """Why the spatial analysis does not cover ``case`` ("" when it does)."""
+    why = []
+    for axis, col in case.planes:
+        if col.distributed_loads:
+            why.append("distributed axial loads")
+        if col.foundations:
+            why.append(f"foundations ({axis} axis)")
+        if col.leaning_loads:
+            why.append(f"leaning loads ({axis} axis)")
+        if any(s.I_top is not None and s.tapered for s in col.segments):
+            why.append("tapered segments")
+        if any(s.S is not None for s in col.segments):
+            why.append("shear flexibility (S)")
+    seen = list(dict.fromkeys(why))
+    return f"{NOT_COVERED}: {', '.join(seen)}" if seen else ""
+
+
+def _segments(case: Case, inputs: SpatialInputs) -> tuple[SpatialSegment, ...]:
+    major, minor = case.column("major"), case.column("minor")
+    out = []
+    for i, (info, sy, sz) in enumerate(zip(case.segments, major.segments, minor.segments)):
+        tc = info.shape.torsion()
+        G = inputs.G if inputs.G is not None else sy.E / (2.0 * (1.0 + inputs.nu))
+        A = sy.A if sy.A is not None else info.A
+        if A is None:  # pragma: no cover - a section always gives its area
+            raise ModelError(f"segment[{i + 1}].A", "missing: the thin-walled analysis needs the area")
+        out.append(SpatialSegment(length=sy.length, E=sy.E, G=G, A=A, I_y=sy.I, I_z=sz.I, J=tc.J, I_w=tc.I_w,
+                                  y0=tc.y0, z0=tc.z0, beta_y=tc.beta_major, name=info.name or f"segment {i + 1}"))
+    return tuple(out)
+
+
+def _restraints(case: Case, inputs: SpatialInputs) -> tuple[list[SpatialRestraint], list[OffsetRestraint]]:
+    tol = STATION_TOL * case.height
+    by_table = {r.table: r for r in inputs.restraints}
+    point: list[SpatialRestraint] = []
+    offset: list[OffsetRestraint] = []
+    held: dict[float, set[str]] = {}  # station -> planes held rigidly by restraints without offset
+    for key in case.origins:
+        if not key.startswith("restraint["):
+            continue
+        tors = by_table.get(key)
+        for axis, r in case.model_objects(key):
+            lateral = r.lateral
+            if tors is not None and tors.offset is not None and lateral > 0:
+                ey, ez = (0.0, tors.offset) if axis == "minor" else (tors.offset, 0.0)
+                offset.append(OffsetRestraint(r.at, ey, ez, u=lateral if axis == "minor" else 0.0,
+                                              v=lateral if axis == "major" else 0.0, reference="centroid"))
+                lateral = 0.0
+            if math.isinf(lateral):
+                held.setdefault(_station(held, r.at, tol), set()).add(axis)
+            if lateral > 0 or r.rotation > 0:
+                point.append(SpatialRestraint(r.at, u=lateral, rotation_u=r.rotation) if axis == "minor" else
+                             SpatialRestraint(r.at, v=lateral, rotation_v=r.rotation))
+    given: dict[float, float] = {}
+    for t in inputs.restraints:
+        x = _station(given, t.at, tol)
+        if t.twist is not None:
+            given[x] = given.get(x, 0.0) + t.twist
+        if t.twist is not None or t.warping:
+            point.append(SpatialRestraint(t.at, twist=t.twist or 0.0, warping=t.warping))
+    for x, planes in held.items():
+        if planes >= {"major", "minor"} and not any(abs(x - g) <= tol for g in given):
+            point.append(SpatialRestraint(x, twist=math.inf))  # a fork: twist held, warping free
+    return point, offset
+
+
+def _station(known: dict[float, Any], x: float, tol: float) -> float:
+    """``x``, or the station of ``known`` within ``tol`` of it."""
+    return next((k for k in known if abs(k - x) <= tol), x)
+
+
+def spatial_column(case: Case, inputs: SpatialInputs) -> SpatialColumn:
+    """The thin-walled member of ``case`` (two planes, every segment with a section shape, covered)."""
+    point, offset = _restraints(case, inputs)
+    loads = tuple(AxialLoad(p.at, p.P, p.permanent) for p in case.column("major").point_loads if p.P != 0)
+    return SpatialColumn(segments=_segments(case, inputs), restraints=tuple(point), offset_restraints=tuple(offset),
+                         loads=loads, title=case.title)
+
+
+def run_spatial(case: Case, results: Sequence[BucklingResult], inputs: SpatialInputs) -> SpatialCase | None:
+    """Spatial buckling of ``case``; None unless it has two planes and every segment has a section shape."""
+    if tuple(a for a, _ in case.planes) != ("major", "minor") or any(s.shape is None for s in case.segments):
+        return None
+    from .spatial import spatial_buckling
+
+    low = min(results, key=lambda r: r.load_factor)
+    names = tuple(s.name for s in case.segments)
+    lam, axis = float(low.load_factor), low.axis or ""
+    note = _not_covered(case)
+    if note:
+        return SpatialCase(None, note, names, lam, axis)
+    try:
+        column = spatial_column(case, inputs)
+        result = spatial_buckling(column, n_modes=case.n_modes, tol=case.tolerance)
+    except (ModelError, SolverError) as exc:
+        return SpatialCase(None, f"not run: {exc}", names, lam, axis)
+    return SpatialCase(result, "", names, lam, axis, column)
