@@ -4,7 +4,8 @@
 in order.  Each entry names everything of one analysis:
 
 ``tables``   the case-file tables it reads, each with its parser (table, document) -> spec;
-``run``      (case, results so far) -> its result, or None when the case does not ask for it;
+``run``      (case, buckling results) -> its result, or None when the case does not ask for it (with
+             ``uses_earlier``: a third argument, the results of the analyses before it by name);
 ``to_json``  result -> its part of the JSON result (SI), under the analysis's name;
 ``summary``  (result, display units) -> lines of the terminal summary;
 ``figures``  (result, display units, case) -> named figures drawn beside the mode shapes by ``--plot``;
@@ -53,6 +54,8 @@ class Analysis:
     summary: Callable[[Any, Any], list[str]]
     figures: Callable[[Any, Any, Case], dict] | None = None
     report: OptionalPart | None = None
+    #: run takes a third argument: the results of the analyses before it (name -> result)
+    uses_earlier: bool = False
 
 
 def _run_fixity(case: Case, buckling_results: tuple[BucklingResult, ...]):
@@ -76,10 +79,10 @@ def _run_imperfect(case: Case, buckling_results: tuple[BucklingResult, ...]):
     return run_imperfect(case, buckling_results) or None
 
 
-def _run_design(case: Case, buckling_results: tuple[BucklingResult, ...]):
+def _run_design(case: Case, buckling_results: tuple[BucklingResult, ...], earlier: Mapping[str, Any]):
     from .design.member import design_of_case
 
-    return design_of_case(case, buckling_results)
+    return design_of_case(case, buckling_results, spatial=earlier.get("spatial"))
 
 
 def _imperfect_figures(result, display, case: Case) -> dict:
@@ -112,7 +115,7 @@ ANALYSES: tuple[Analysis, ...] = (
     Analysis("imperfect", {"imperfection": parse_imperfection, "lateral": parse_lateral}, _run_imperfect,
              imperfect_json, imperfect_summary, _imperfect_figures, IMPERFECT_PART),
     Analysis("design", {"design": parse_design}, _run_design, design_json, design_summary, _design_figures,
-             DESIGN_PART),
+             DESIGN_PART, uses_earlier=True),
 )
 
 #: The report part of every analysis, in report order (passed to :func:`fea.report.build_report`).
@@ -154,7 +157,7 @@ def run_case(case: Case, n_modes: int | None = None, skip: tuple[str, ...] = ())
     for analysis in ANALYSES:
         if analysis.name in skip:
             continue
-        out = analysis.run(case, results)
+        out = analysis.run(case, results, extras) if analysis.uses_earlier else analysis.run(case, results)
         if out is not None:
             extras[analysis.name] = out
     return CaseResults(case=case, buckling=results, governing_axis=gov, extras=extras)

@@ -416,3 +416,48 @@ def test_imperfect_part_uses_engineering_wording(runs):
         assert label in html
     for raw in (">Perry force<", ">N elements<", ">N fibres<"):
         assert raw not in html
+
+
+def test_design_part_of_a_member_not_verified_for_twisting_traces_every_number(tmp_path):
+    """A tee strut the thin-walled analysis does not cover: the failure mode not covered is listed with its
+    source, so the numbers in it ("segment 1", "6.3.1.4") trace to the JSON (invented case)."""
+    from fea.pipeline import REPORT_PARTS, parse_case, run_case
+    from fea.report import build_markdown
+
+    text = """
+title = "tee strut, not covered (invented)"
+[units]
+length = "m"
+force = "kN"
+[material]
+E = "210 GPa"
+fy = "355 MPa"
+[[segment]]
+name = "strut"
+length = "2.5 m"
+section = { shape = "tee", b = "150 mm", h = "150 mm", tf = "8 mm", tw = "6 mm" }
+[[restraint]]
+at = "base"
+lateral = "rigid"
+[[restraint]]
+at = "top"
+lateral = "rigid"
+[[load]]
+at = "top"
+axial = "150 kN"
+[[distributed_load]]
+from = "base"
+to = "top"
+axial = "0.1 kN/m"
+[design]
+standard = "EN 1993-1-1"
+curve = "c"
+"""
+    case = parse_case(text)
+    res = run_case(case)
+    assert res.extras["design"].verdict == "not verified" and res.extras["design"].unchecked
+    data = result_dict(res)
+    html = build_report(res, data, parts=PARTS, date=DATE)
+    check_numbers(html, case, data)  # every number on the page names its source and equals it
+    md = build_markdown(res, figures={}, parts=REPORT_PARTS, date="2026-01-01")
+    assert "Failure modes not covered" in md and "flexural-torsional" in md

@@ -190,12 +190,46 @@ def test_spatial_load_factor_below_one_is_a_run_warning():
     assert [n.axis for n in notes] == ["spatial"]
 
 
+def test_design_of_a_tee_checks_its_flexural_torsional_critical_force():
+    res = run_case(parse_case(_tee(design=EN_DESIGN)))
+    sp, design = res.extras["spatial"], res.extras["design"]
+    (tors,) = [c for c in design.checks if c.axis == "torsional"]
+    planar = [c for c in design.checks if c.axis in ("major", "minor")]
+    # the flexural-torsional N_cr of the thin-walled analysis, below both planar ones, is the one checked
+    assert tors.N_cr == pytest.approx(sp.load_factor * 200e3, rel=1e-9)
+    assert tors.N_cr < min(c.N_cr for c in planar)
+    # EN 1993-1-1 6.3.1.4 (from memory): lambda_T = sqrt(A fy / N_cr,TF), curve of the z-z axis (here c for both)
+    A = res.case.segments[0].A
+    assert tors.slenderness == pytest.approx(math.sqrt(A * 355e6 / tors.N_cr), rel=1e-12)
+    assert tors.clause.startswith("EN 1993-1-1 6.3.1.4") and "6.3.1.4" in tors.note
+    assert design.governing is tors and tors.utilisation > max(c.utilisation for c in planar)
+    assert design.unchecked == () and design.verdict in ("passes", "fails")
+    data = result_json(res)["design"]
+    assert any(c["axis"] == "torsional" for c in data["checks"])
+
+
+def test_design_of_a_tee_by_aisc_uses_e4_with_the_analysis_force():
+    design = run_case(parse_case(_tee(design='[design]\nstandard = "AISC 360"'))).extras["design"]
+    (tors,) = [c for c in design.checks if c.axis == "torsional"]
+    # AISC 360 E4 (from memory): Fe = N_cr / A from the analysis, then the Fcr formula of E3
+    assert tors.clause.startswith("AISC 360 E4") and tors.details["Fe_Pa"] == pytest.approx(
+        tors.N_cr / parse_case(_tee()).segments[0].A, rel=1e-12)
+    assert design.unchecked == ()
+
+
+def test_a_tee_stays_unchecked_where_the_spatial_analysis_does_not_run():
+    text = _tee(design=EN_DESIGN) + '[[distributed_load]]\naxial = "1 kN/m"\n'
+    design = run_case(parse_case(text)).extras["design"]
+    assert not any(c.axis == "torsional" for c in design.checks)
+    assert len(design.unchecked) == 1 and design.verdict != "passes"
+
+
 def test_report_of_the_tee_shows_the_spatial_section_with_every_number_sourced():
     from fea.pipeline import REPORT_PARTS
     from fea.report import build_report
     from tests.test_report import DATE, check_numbers, parse_page
 
-    case = parse_case(_tee())
+    case = parse_case(_tee(design=EN_DESIGN))
     res = run_case(case)
     data = result_json(res)
     html = build_report(res, data, {}, parts=REPORT_PARTS, date=DATE)

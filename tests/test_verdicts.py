@@ -184,6 +184,7 @@ fy = "355 MPa"
 name = "strut"
 length = "2.5 m"
 section = {{ shape = "{shape}", {dims} }}
+{extra}
 [[restraint]]
 at = "base"
 lateral = "rigid"
@@ -199,15 +200,20 @@ curve = "c"
 """
 
 
-@pytest.mark.parametrize("shape, dims, verdict", [
-    # a tee's shear centre is off its centroid: flexural-torsional buckling (EN 1993-1-1 6.3.1.4) is not checked
-    ("tee", 'b = "150 mm", h = "150 mm", tf = "8 mm", tw = "6 mm"', "not verified"),
+#: a distributed axial load, which the thin-walled analysis does not cover: it then does not run
+NOT_COVERED = '[[distributed_load]]\nfrom = "base"\nto = "top"\naxial = "0.1 kN/m"'
+
+
+@pytest.mark.parametrize("shape, dims, extra, verdict", [
+    # a tee's shear centre is off its centroid: where the thin-walled analysis does not run, flexural-torsional
+    # buckling (EN 1993-1-1 6.3.1.4) is not checked, and the member is not verified
+    ("tee", 'b = "150 mm", h = "150 mm", tf = "8 mm", tw = "6 mm"', NOT_COVERED, "not verified"),
     # a doubly symmetric I section: the planar checks are the member checks
-    ("i_section", 'b = "150 mm", h = "150 mm", tf = "8 mm", tw = "6 mm"', "passes"),
+    ("i_section", 'b = "150 mm", h = "150 mm", tf = "8 mm", tw = "6 mm"', "", "passes"),
 ])
-def test_open_sections_that_twist_are_not_verified_by_planar_checks(shape, dims, verdict, tmp_path):
+def test_open_sections_that_twist_are_not_verified_by_planar_checks(shape, dims, extra, verdict, tmp_path):
     path = tmp_path / "strut.toml"
-    path.write_text(TEE_STRUT.format(shape=shape, dims=dims), encoding="utf-8")
+    path.write_text(TEE_STRUT.format(shape=shape, dims=dims, extra=extra), encoding="utf-8")
     out = run_cli("check", str(path), "--json", "-")
     data = json.loads(out.stdout)
     assert data["design"]["passed"] and data["design"]["verdict"] == verdict

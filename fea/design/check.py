@@ -39,6 +39,8 @@ __all__ = [
     "compression_check",
     "tension_check",
     "design_check",
+    "torsional_check",
+    "TORSIONAL_AXIS",
 ]
 
 #: Standards a case may name, with the parameters each takes and their defaults
@@ -351,3 +353,34 @@ def design_check(spec: DesignSpec, members: Sequence[MemberData], forces: Sequen
         raise ModelError("load", "no segment carries axial force: nothing to design")
     return DesignResult(standard=spec.standard, load_factor=lf, checks=tuple(checks), notes=tuple(notes))
 
+
+#: The axis label of the compression check on the flexural-torsional critical force of the thin-walled analysis.
+TORSIONAL_AXIS = "torsional"
+
+#: What each standard does with a flexural-torsional (or torsional) critical force, as the check states it.
+TORSIONAL_METHOD = {
+    "EN 1993-1-1": ("EN 1993-1-1 6.3.1.4: lambda_T = sqrt(A fy / N_cr,TF) with N_cr,TF from the thin-walled "
+                    "analysis, then 6.3.1.2 with the buckling curve of the z-z (minor) axis (from memory)"),
+    "AISC 360": ("AISC 360 E4: Fe = N_cr,TF / A with N_cr,TF from the thin-walled analysis, then the Fcr formula "
+                 "of E3 (from memory)"),
+}
+
+
+def torsional_check(spec: DesignSpec, index: int, m: MemberData, N_cr: float, N_Ed: float, kind: str) -> DesignCheck:
+    """The compression check of segment ``index`` on its flexural-torsional critical force ``N_cr`` [N] (the axial
+    force in it at the lowest mode of the thin-walled analysis, of kind ``kind``), about the axis label
+    :data:`TORSIONAL_AXIS`: the standard's own compression formula with its minor-axis curve (EN 1993-1-1
+    6.3.1.4, AISC 360 E4; the other standards by their minor-axis curve, from memory)."""
+    params = spec.for_segment(index)
+    out = compression_check(spec.standard, params, "minor", m, N_cr, N_Ed)
+    method = TORSIONAL_METHOD.get(spec.standard, f"{spec.standard}: the critical force from the thin-walled "
+                                                 "analysis with the minor-axis curve (from memory)")
+    clause = method.split(":")[0] + f"; {out['clause']}"
+    return DesignCheck(
+        segment=index, name=m.name, axis=TORSIONAL_AXIS, kind="compression", standard=spec.standard, clause=clause,
+        formula=RECORDS[spec.standard].formula, parameter=out["parameter"], slenderness=out["slenderness"],
+        slenderness_name=out["slenderness_name"], reduction=out["reduction"], N_cr=N_cr, N_Ed=N_Ed,
+        resistance=out["resistance"], utilisation=UTILISATION(N_Ed_N=N_Ed, resistance_N=out["resistance"]),
+        governs=out["governs"], effective_length_factor=None, k_meaningful=False,
+        note=f"N_cr of the {kind} mode of the thin-walled analysis, below the planar ones; {method}",
+        details=MappingProxyType(out["details"]), labels=MappingProxyType(out.get("labels", {})))

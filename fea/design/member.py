@@ -10,15 +10,27 @@ from __future__ import annotations
 
 import math
 from dataclasses import replace
-from typing import Sequence
+from typing import TYPE_CHECKING, Sequence
 
 from ..errors import CaseError
 from ..model import STATION_TOL, Column
 from ..model.case import Case
 from ..results import BucklingResult
-from .check import AxisBuckling, DesignResult, DesignSpec, MemberData, SegmentForces, design_check
+from .check import (
+    AxisBuckling,
+    DesignCheck,
+    DesignResult,
+    DesignSpec,
+    MemberData,
+    SegmentForces,
+    design_check,
+    torsional_check,
+)
 from .standards import STANDARDS
 from .sway import classify_sway
+
+if TYPE_CHECKING:
+    from ..solve.spatial_case import SpatialCase
 
 __all__ = ["sways", "member_data", "segment_forces", "axis_buckling", "design_of_case", "NEEDS_FY"]
 
@@ -78,13 +90,16 @@ def sways(column: Column) -> bool:
 
 
 def design_of_case(case: Case, results: Sequence[BucklingResult], spec: DesignSpec | None = None,
-                   areas: Sequence[float | None] | None = None, columns: Sequence[Column] | None = None
-                   ) -> DesignResult | None:
+                   areas: Sequence[float | None] | None = None, columns: Sequence[Column] | None = None,
+                   spatial: "SpatialCase | None" = None) -> DesignResult | None:
     """Design check of ``case`` from its buckling ``results`` (one per plane, in the case's order).
 
     Returns None when the case declares no design (and no ``spec`` is given).
     ``areas`` and ``columns`` replace the case's segment areas and columns
-    (used by sizing, where every candidate is a new model).
+    (used by sizing, where every candidate is a new model).  ``spatial``: the thin-walled analysis of the
+    case; when it ran and converged, a segment of a twisting section (:data:`TWISTING_SHAPES`) gets a
+    compression check on its flexural-torsional critical force where that is below the planar ones, and is
+    no longer listed as unchecked.
     """
     spec = spec if spec is not None else case.extras.get("design")
     if spec is None:
@@ -98,7 +113,38 @@ def design_of_case(case: Case, results: Sequence[BucklingResult], spec: DesignSp
     # design loads is the plane's lowest load factor on the case loads divided by it
     sway = tuple(classify_sway(spec.standard, r.axis or a, r.load_factor / spec.load_factor, sways(c))
                  for r, (a, _), c in zip(results, case.planes, cols))
-    return replace(result, sway=sway, unchecked=unchecked_modes(case, forces))
+    covered: set[int] = set()
+    if spatial is not None and areas is None and columns is None:
+        extra, covered, notes = torsional_checks(case, spec, members, forces, buck, spatial)
+        if extra or notes:
+            checks = sorted(result.checks + extra, key=lambda c: (c.segment, c.kind == "tension"))
+            result = replace(result, checks=tuple(checks), notes=result.notes + notes)
+    return replace(result, sway=sway, unchecked=unchecked_modes(case, forces, covered))
+
+
+def torsional_checks(case: Case, spec: DesignSpec, members: Sequence[MemberData], forces: Sequence[SegmentForces],
+                     buck: Sequence[tuple[str, Sequence[AxisBuckling]]], spatial: "SpatialCase"
+                     ) -> tuple[tuple[DesignCheck, ...], set[int], tuple[str, ...]]:
+    """The checks on the flexural-torsional critical force of the segments of twisting sections, the indices of
+    the segments the thin-walled analysis covers, and the notes on those it finds not governed by it."""
+    r = spatial.result
+    if r is None or not spatial.ran or not r.converged:
+        return (), set(), ()
+    checks, covered, notes = [], set(), []
+    for i, (info, m, f) in enumerate(zip(case.segments, members, forces)):
+        kind = getattr(type(info.shape), "kind", "") if info.shape is not None else ""
+        N_c = spec.load_factor * f.compression
+        if kind not in TWISTING_SHAPES or N_c <= 0:
+            continue
+        covered.add(i)
+        N_sp = float(r.segment_N_cr[0][i])
+        planar = [segs[i].N_cr for _, segs in buck if segs[i].N_cr > 0]
+        if N_sp > 0 and (not planar or N_sp < min(planar)):
+            checks.append(torsional_check(spec, i, m, N_sp, N_c, r.kinds[0]))
+        else:
+            notes.append(f"segment {i + 1} ('{info.name}'): the thin-walled analysis finds no mode below the planar "
+                         "ones: the planar checks cover its flexural-torsional buckling")
+    return tuple(checks), covered, tuple(notes)
 
 
 #: Section shapes that may buckle by twisting in compression: those whose shear centre lies off the centroid
@@ -107,10 +153,14 @@ def design_of_case(case: Case, results: Sequence[BucklingResult], spec: DesignSp
 TWISTING_SHAPES = {"tee": "tee", "angle": "angle", "channel": "channel", "cruciform": "cruciform"}
 
 
-def unchecked_modes(case: Case, forces: Sequence[SegmentForces]) -> tuple[str, ...]:
-    """Ways a segment in compression may fail that the axial checks do not cover, one plain sentence each."""
+def unchecked_modes(case: Case, forces: Sequence[SegmentForces], covered: set[int] | frozenset[int] = frozenset()
+                    ) -> tuple[str, ...]:
+    """Ways a segment in compression may fail that the axial checks do not cover, one plain sentence each
+    (``covered``: indices of segments the thin-walled analysis has checked)."""
     out = []
     for i, (info, f) in enumerate(zip(case.segments, forces)):
+        if i in covered:
+            continue
         kind = getattr(type(info.shape), "kind", "") if info.shape is not None else ""
         if kind in TWISTING_SHAPES and f.compression > 0:
             out.append(f"segment {i + 1} ('{info.name}'): a {TWISTING_SHAPES[kind]} section in compression may "

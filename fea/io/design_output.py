@@ -108,7 +108,8 @@ def design_summary(r: DesignResult, d: DisplayUnits) -> list[str]:
         if c.note:
             out.append(f"  {'':<18} ({c.note})")
     g = r.governing
-    where = "in tension" if g.kind == "tension" else f"about the {g.axis} axis"
+    where = "in tension" if g.kind == "tension" else \
+        "in flexural-torsional buckling" if g.axis == "torsional" else f"about the {g.axis} axis"
     word = {"passes": "PASSES", "fails": "FAILS", "not verified": "axial checks pass, NOT VERIFIED"}[r.verdict]
     out.append(f"Governing: segment {g.segment + 1} ({g.name}) {where}, utilisation {g.utilisation:.3f}: {word}")
     if r.sway:

@@ -16,7 +16,8 @@ from .document import Bullets, Calc, Heading, Note, Para, Q, T, Table, q, unit_l
 
 __all__ = ["design_blocks", "FORMULA_CONSTANTS"]
 
-AXIS_WORDS = {"major": "major axis", "minor": "minor axis", "in-plane": "in-plane"}
+AXIS_WORDS = {"major": "major axis", "minor": "minor axis", "in-plane": "in-plane",
+              "torsional": "flexural-torsional buckling"}
 
 
 # -- the part ---------------------------------------------------------------------------------------
@@ -94,9 +95,9 @@ def design_blocks(part: dict, u) -> list:
     blocks: list = []
     verdict = "every check passes" if part.get("passed") else "at least one check FAILS"
     if part.get("verdict") == "not verified":
-        verdict = ("every axial check passes, but the member is NOT VERIFIED ("
-                   + ("see the sway sensitivity below" if not part.get("unchecked") else
-                      "failure modes not covered: " + "; ".join(part["unchecked"])) + ")")
+        verdict = "every axial check passes, but the member is NOT VERIFIED (see the sway sensitivity below)"
+        if part.get("unchecked"):
+            verdict = "every axial check passes, but the member is NOT VERIFIED (see the failure modes not covered)"
     elif part.get("verdict") == "fails" and part.get("passed"):
         verdict = "the column buckles elastically below its loads: the design FAILS"
     where: tuple = ()
@@ -109,6 +110,9 @@ def design_blocks(part: dict, u) -> list:
                         CLASSICAL.get(std, ""), ": ", verdict,
                         "; the largest utilisation is ",
                         q(part.get("max_utilisation"), "json:design/max_utilisation", "", 3), *where, ".")))
+    if part.get("unchecked"):
+        blocks.append(Para(("Failure modes not covered by these checks:",)))
+        blocks.append(Bullets(tuple((T(u, f"json:design/unchecked/{i}"),) for i, u in enumerate(part["unchecked"]))))
     blocks.extend(_sway_blocks(part))
     if not checks:
         return blocks

@@ -121,7 +121,8 @@ def _head_lines(k: Check, axis: str) -> list[CalcLine]:
     out = [CalcLine(_design_force_symbol(std, k.c["kind"], k.labels), with_unit(k.force("N_Ed_N")),
                     ("(largest design compression in this segment)",))]
     if k.has("N_cr_N"):
-        plane = "the in-plane" if axis == "in-plane" else f"the {axis}-axis"
+        plane = "the in-plane" if axis == "in-plane" else (
+            "the thin-walled (flexural-torsional)" if axis == "torsional" else f"the {axis}-axis")
         out.append(CalcLine(N_CR, with_unit(k.force("N_cr_N")),
                             (f"(finite-element model: the force in this segment at the lowest critical state of "
                              f"{plane} plane)",)))
