@@ -236,3 +236,32 @@ def test_report_of_the_tee_shows_the_spatial_section_with_every_number_sourced()
     assert check_numbers(html, case, data) > 0
     page = parse_page(html)
     assert "Thin-walled buckling" in [t for h, t in page.headings if h == "h3"]
+
+
+# -- the two demo cases of issue 14 (invented scenarios) -----------------------------------------------------
+
+def _demo(name: str):
+    from pathlib import Path
+
+    from fea.pipeline import load_case, run_case
+
+    return run_case(load_case(str(Path(__file__).resolve().parents[1] / "cases" / name)))
+
+
+def test_demo_tee_chord_is_governed_by_flexural_torsional_buckling():
+    """EN 1993-1-1 6.3.1.4: the tee's design check uses the flexural-torsional critical force."""
+    res = _demo("tee_chord_strut.toml")
+    d = res.extras["design"]
+    assert d.governing.axis == "torsional" and not d.unchecked
+    assert d.governing.N_cr < min(c.N_cr for c in d.checks if c.axis in ("major", "minor"))
+
+
+def test_demo_girt_column_checks_buckling_about_the_girt_line():
+    """Girts on the outer flange: the I column twists about the girt line (restrained-axis buckling) far below
+    its planar minor-axis load, and the design check takes that mode (EN 1993-1-1 6.3.1.4)."""
+    res = _demo("girt_wall_column.toml")
+    d = res.extras["design"]
+    tors = [c for c in d.checks if c.axis == "torsional"]
+    minor = [c for c in d.checks if c.axis == "minor"]
+    assert len(tors) == 1 and tors[0].N_cr < 0.5 * minor[0].N_cr
+    assert d.governing is tors[0] and tors[0].utilisation > 2 * minor[0].utilisation

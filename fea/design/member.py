@@ -122,24 +122,40 @@ def design_of_case(case: Case, results: Sequence[BucklingResult], spec: DesignSp
     return replace(result, sway=sway, unchecked=unchecked_modes(case, forces, covered))
 
 
+#: A thin-walled critical force counts as below the planar ones only beyond this relative margin (the two
+#: analyses agree to about 1e-8 on a flexural mode).
+PLANAR_MARGIN = 1e-6
+
+
 def torsional_checks(case: Case, spec: DesignSpec, members: Sequence[MemberData], forces: Sequence[SegmentForces],
                      buck: Sequence[tuple[str, Sequence[AxisBuckling]]], spatial: "SpatialCase"
                      ) -> tuple[tuple[DesignCheck, ...], set[int], tuple[str, ...]]:
-    """The checks on the flexural-torsional critical force of the segments of twisting sections, the indices of
-    the segments the thin-walled analysis covers, and the notes on those it finds not governed by it."""
+    """The checks on the flexural-torsional critical force of the segments, the indices of the twisting-section
+    segments the thin-walled analysis covers, and the notes on those it finds not governed by it.
+
+    Any segment gets the check when the lowest mode of the thin-walled analysis twists and gives it a critical
+    force below the planar ones: a doubly symmetric I column held by girts on one flange buckles about the
+    girt line (restrained-axis buckling) far below its planar minor-axis load.
+    """
     r = spatial.result
     if r is None or not spatial.ran or not r.converged:
         return (), set(), ()
     checks, covered, notes = [], set(), []
+    twists = not str(r.kinds[0]).startswith("flexural (")
     for i, (info, m, f) in enumerate(zip(case.segments, members, forces)):
         kind = getattr(type(info.shape), "kind", "") if info.shape is not None else ""
         N_c = spec.load_factor * f.compression
-        if kind not in TWISTING_SHAPES or N_c <= 0:
+        if N_c <= 0:
             continue
-        covered.add(i)
         N_sp = float(r.segment_N_cr[0][i])
         planar = [segs[i].N_cr for _, segs in buck if segs[i].N_cr > 0]
-        if N_sp > 0 and (not planar or N_sp < min(planar)):
+        below = N_sp > 0 and (not planar or N_sp < (1.0 - PLANAR_MARGIN) * min(planar))
+        if kind not in TWISTING_SHAPES:
+            if twists and below:
+                checks.append(torsional_check(spec, i, m, N_sp, N_c, r.kinds[0]))
+            continue
+        covered.add(i)
+        if below:
             checks.append(torsional_check(spec, i, m, N_sp, N_c, r.kinds[0]))
         else:
             notes.append(f"segment {i + 1} ('{info.name}'): the thin-walled analysis finds no mode below the planar "

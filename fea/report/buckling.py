@@ -8,7 +8,7 @@ from ..model.ideal_supports import IdealK, ideal_case, ideal_cases
 from ..results import BucklingResult, CaseResults, SegmentBuckling
 from ..units import DisplayUnits
 from .blocks import hdr, yes
-from .document import Em, Figure, Heading, Para, Part, Q, Sub, T, Table, q, unit_label
+from .document import Em, Figure, Heading, Note, Para, Part, Q, Sub, T, Table, q, unit_label
 
 __all__ = ["buckling_part", "plane_title", "segment_ideal"]
 
@@ -106,6 +106,13 @@ def buckling_part(res: CaseResults, u: DisplayUnits, mode_figures: list) -> Part
                               " axis, lowest load factor ", Em("λ"), " = ", lam, "."))]
     else:
         blocks = [Para(("Lowest load factor ", Em("λ"), " = ", lam, "."))]
+    spatial = res.extras.get("spatial")
+    r = getattr(spatial, "result", None)
+    if r is not None and r.converged and float(r.load_factors[0]) < res.governing.load_factor * (1 - 1e-6):
+        lowest = q(float(r.load_factors[0]), "json:spatial/load_factors/0")
+        blocks.append(Note(("The thin-walled analysis below finds a lower mode, ",
+                            T(r.kinds[0], "json:spatial/kinds/0"), ", at ", Em("λ"), " = ", lowest,
+                            ": it governs the member.",), "warning"))
     for i, b in enumerate(res.buckling):
         blocks += _plane(res, i, b, several and b.axis == res.governing_axis, u)
     for svg, caption in mode_figures:

@@ -74,7 +74,12 @@ def _eigenproblem(res: CaseResults) -> list:
 def _assumptions(res: CaseResults) -> list:
     has_perm = any(any(ld.permanent for ld in c.point_loads) or any(ld.permanent for ld in c.distributed_loads)
                    for _, c in res.case.planes)
-    items = [("Planar flexural buckling only, about each principal axis separately.",),
+    spatial = res.extras.get("spatial")
+    ran = spatial is not None and getattr(spatial, "result", None) is not None
+    items = [("Flexural buckling about each principal axis separately in the planar analyses; bending about both "
+              "axes and twisting together in the thin-walled analysis (with the critical buckling part).",) if ran else
+             ("Planar flexural buckling only, about each principal axis separately: no torsional or "
+              "flexural-torsional buckling is analysed for this case.",),
              ("All axial load is carried down the column to its base: the axial force at a height is the sum of "
               "the loads above it.",),
              ("Linear elastic material and small displacements for the critical loads.",),
