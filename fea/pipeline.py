@@ -73,6 +73,13 @@ def _run_spatial(case: Case, buckling_results: tuple[BucklingResult, ...]):
     return run_spatial(case, buckling_results, spatial_inputs(case))
 
 
+def _spatial_figures(result, display, case: Case) -> dict:
+    """The lowest modes of the thin-walled analysis: lateral displacements and twist along the height."""
+    from .plot.spatial import plot_spatial_modes
+
+    return {"spatial": plot_spatial_modes(result, length_unit=(display.length, display.length_si), title=case.title)}
+
+
 def _run_imperfect(case: Case, buckling_results: tuple[BucklingResult, ...]):
     from .solve.imperfect_case import run_imperfect  # the solvers load only when a case declares an imperfection
 
@@ -111,7 +118,7 @@ def _design_figures(result, display, case: Case) -> dict:
 #: The analyses ``check`` and ``report`` run after the elastic buckling of every plane, in this order.
 ANALYSES: tuple[Analysis, ...] = (
     Analysis("fixity", {}, _run_fixity, fixity_json, fixity_summary, None, FIXITY_PART),
-    Analysis("spatial", {}, _run_spatial, spatial_json, spatial_summary, None, SPATIAL_PART),
+    Analysis("spatial", {}, _run_spatial, spatial_json, spatial_summary, _spatial_figures, SPATIAL_PART),
     Analysis("imperfect", {"imperfection": parse_imperfection, "lateral": parse_lateral}, _run_imperfect,
              imperfect_json, imperfect_summary, _imperfect_figures, IMPERFECT_PART),
     Analysis("design", {"design": parse_design}, _run_design, design_json, design_summary, _design_figures,

@@ -6,6 +6,7 @@ Every case here is invented (demo data).
 from __future__ import annotations
 
 import math
+from pathlib import Path
 
 import pytest
 
@@ -265,3 +266,21 @@ def test_demo_girt_column_checks_buckling_about_the_girt_line():
     minor = [c for c in d.checks if c.axis == "minor"]
     assert len(tors) == 1 and tors[0].N_cr < 0.5 * minor[0].N_cr
     assert d.governing is tors[0] and tors[0].utilisation > 2 * minor[0].utilisation
+
+
+def test_spatial_mode_figure_draws_both_displacements_and_the_twist(tmp_path):
+    """`--plot` writes the thin-walled modes: three panels (u, v, twist), one curve per mode in each."""
+    from fea.cli import main
+
+    out = tmp_path / "chord.png"
+    assert main(["check", str(Path(__file__).resolve().parents[1] / "cases" / "tee_chord_strut.toml"),
+                 "--plot", str(out)]) == 0
+    assert (tmp_path / "chord-spatial.png").stat().st_size > 0
+    from fea.pipeline import load_case, run_case
+    from fea.plot.spatial import plot_spatial_modes
+
+    res = run_case(load_case(str(Path(__file__).resolve().parents[1] / "cases" / "tee_chord_strut.toml")))
+    fig = plot_spatial_modes(res.extras["spatial"])
+    assert [ax.get_title() for ax in fig.axes] == ["u: lateral, along the major axis",
+                                                   "v: lateral, along the minor axis", "twist x i_0"]
+    assert all(len(ax.lines) == 3 + 1 for ax in fig.axes)  # three modes and the axis line
