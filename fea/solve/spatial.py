@@ -354,8 +354,9 @@ def _mechanism(sys: _System) -> str:
     return "the member is a mechanism (too little restraint)"
 
 
-#: Largest reduced system solved by dense LAPACK; larger ones by a banded factor and ARPACK.
-DENSE_MAX = 48
+#: Largest reduced system solved dense with numpy (no scipy import; cheaper than that import up to here); larger
+#: ones by a banded factor and ARPACK.
+DENSE_MAX = 300
 
 
 def _band(A: np.ndarray, bw: int) -> np.ndarray:
@@ -403,9 +404,8 @@ def _eig_banded(K: np.ndarray, G: np.ndarray, m: int) -> tuple[np.ndarray, np.nd
 
 
 def _eigen(sys: _System, n_modes: int) -> tuple[np.ndarray, np.ndarray]:
-    """Lowest positive load factors and their vectors (reduced numbering)."""
-    import scipy.linalg as sla
-
+    """Lowest positive load factors and their vectors (reduced numbering).  Small systems with numpy alone (no
+    scipy import for an everyday column), larger ones by the banded factor and ARPACK."""
     n = sys.free.size if sys.T is None else sys.T.shape[1]
     if n == 0:
         raise ModelError("restraints", "every degree of freedom is rigidly restrained; nothing can buckle")
@@ -425,11 +425,11 @@ def _eigen(sys: _System, n_modes: int) -> tuple[np.ndarray, np.ndarray]:
             fac = _cholesky(Ks)
             if fac is not None:
                 L = fac[0]
-                X = sla.solve_triangular(L, G, lower=True, check_finite=False)
-                C = sla.solve_triangular(L, X.T, lower=True, check_finite=False)
+                X = np.linalg.solve(L, G)
+                C = np.linalg.solve(L, X.T)
                 mu, y = np.linalg.eigh(0.5 * (C + C.T))
                 mu, y = mu[::-1][:m], y[:, ::-1][:, :m]
-                out = mu, sla.solve_triangular(L.T, y, lower=False, check_finite=False)
+                out = mu, np.linalg.solve(L.T, y)
     if out is None:
         if _cholesky(K0) is None:
             raise ModelError("restraints", _mechanism(sys))
