@@ -284,3 +284,17 @@ def test_spatial_mode_figure_draws_both_displacements_and_the_twist(tmp_path):
     assert [ax.get_title() for ax in fig.axes] == ["u: lateral, along the major axis",
                                                    "v: lateral, along the minor axis", "twist x i_0"]
     assert all(len(ax.lines) == 3 + 1 for ax in fig.axes)  # three modes and the axis line
+
+
+def test_offset_restraint_without_the_thin_walled_analysis_is_not_verified():
+    """Girts on the outer flange, but a distributed axial load the thin-walled analysis does not cover: the
+    restrained-axis mode is unchecked, so the member is not verified (never "passes" on what was not checked)."""
+    from fea.pipeline import parse_case, run_case
+
+    text = (Path(__file__).resolve().parents[1] / "cases" / "girt_wall_column.toml").read_text(encoding="utf-8")
+    text += '\n[[distributed_load]]\nfrom = "base"\nto = "top"\naxial = "0.5 kN/m"\n'
+    res = run_case(parse_case(text))
+    d = res.extras["design"]
+    assert d.passed and d.verdict == "not verified"
+    assert any("restraint[3]" in u and "restrained-axis" in u for u in d.unchecked)
+    assert not any(c.axis == "torsional" for c in d.checks)

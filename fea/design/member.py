@@ -114,12 +114,25 @@ def design_of_case(case: Case, results: Sequence[BucklingResult], spec: DesignSp
     sway = tuple(classify_sway(spec.standard, r.axis or a, r.load_factor / spec.load_factor, sways(c))
                  for r, (a, _), c in zip(results, case.planes, cols))
     covered: set[int] = set()
+    checked = False
     if spatial is not None and areas is None and columns is None:
         extra, covered, notes = torsional_checks(case, spec, members, forces, buck, spatial)
+        checked = spatial.result is not None and spatial.ran and spatial.result.converged
         if extra or notes:
             checks = sorted(result.checks + extra, key=lambda c: (c.segment, c.kind == "tension"))
             result = replace(result, checks=tuple(checks), notes=result.notes + notes)
-    return replace(result, sway=sway, unchecked=unchecked_modes(case, forces, covered))
+    unchecked = unchecked_modes(case, forces, covered) + ((() if checked else offset_restraints(case)))
+    return replace(result, sway=sway, unchecked=unchecked)
+
+
+def offset_restraints(case: Case) -> tuple[str, ...]:
+    """A restraint that holds the section away from its centroid (``offset``, e.g. girts on one flange) lets the
+    member twist about that line (restrained-axis buckling): only the thin-walled analysis checks it."""
+    tables = case.document.get("restraint", [])
+    tables = [tables] if isinstance(tables, dict) else list(tables)
+    return tuple(f"restraint[{i + 1}] holds the section at an offset from its centroid: the member may buckle by "
+                 "twisting about that line (restrained-axis buckling), which these checks do not cover without "
+                 "the thin-walled analysis" for i, t in enumerate(tables) if isinstance(t, dict) and "offset" in t)
 
 
 #: A thin-walled critical force counts as below the planar ones only beyond this relative margin (the two
