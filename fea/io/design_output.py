@@ -120,9 +120,7 @@ def design_summary(r: DesignResult, d: DisplayUnits) -> list[str]:
             out.append(f"  {w.axis} axis: alpha_cr {w.alpha_cr:.3g}{amp}: {w.classification}")
             if not w.axial_check_enough:
                 out.append(f"    ({w.reason})")
-        if r.verdict != ("passes" if r.passed else "fails") and not r.unchecked:
-            out.append(verdict_line(r))
-    if r.unchecked:
+    if r.verdict != ("passes" if r.passed else "fails"):  # not verified, or fails on alpha_cr alone
         out.append(verdict_line(r))
     out.append(f"  {DESIGN_CAUTION.split(CAUTION)[0].strip()}")
     return out

@@ -30,6 +30,7 @@ from dataclasses import dataclass, replace
 from ..errors import ModelError
 
 __all__ = [
+    "merge_stations",
     "FREE",
     "RIGID",
     "Segment",
@@ -320,6 +321,19 @@ def member_force_loads(joints: tuple[float, ...], forces: tuple[float, ...],
     return tuple(out)
 
 
+def merge_stations(xs, height: float) -> tuple[float, ...]:
+    """Heights ``xs`` clipped to the member, sorted, those within ``STATION_TOL * height`` of the previous one
+    merged, and the ends snapped exactly to 0 and ``height`` [m]."""
+    tol = STATION_TOL * height
+    ordered = sorted(min(max(float(x), 0.0), height) for x in xs)
+    merged = [ordered[0]]
+    for x in ordered[1:]:
+        if x - merged[-1] > tol:
+            merged.append(x)
+    merged[0], merged[-1] = 0.0, height
+    return tuple(merged)
+
+
 @dataclass(frozen=True, slots=True)
 class Column:
     """A column: segments from the base up, with restraints and loads.
@@ -398,17 +412,7 @@ class Column:
             xs += [d.bottom, d.top]
         for f in self.foundations:
             xs += [f.bottom, f.top]
-        H = self.height
-        xs = sorted(min(max(x, 0.0), H) for x in xs)
-        tol = STATION_TOL * H
-        merged = [xs[0]]
-        for x in xs[1:]:
-            if x - merged[-1] > tol:
-                merged.append(x)
-        # snap ends exactly
-        merged[0] = 0.0
-        merged[-1] = H
-        return tuple(merged)
+        return merge_stations(xs, self.height)
 
     # -- loads ----------------------------------------------------------
     def axial_force(self, x, permanent: bool | None = None):

@@ -290,22 +290,26 @@ def _short_interval_text(column: Column, ab: tuple[float, float]) -> str:
 ORDINARY_ROUNDOFF = 1e-8
 
 
-def _roundoff_warning(column: Column, floor: float, tol: float | None = None) -> str:
-    """The round-off warning, naming its likely cause: a tolerance finer than double precision gives, a very short
+def _roundoff_cause(column: Column, floor: float, tol: float | None = None) -> str:
+    """The likely cause of a round-off limit: a tolerance finer than double precision gives, a very short
     interval, a stiffness contrast or very soft restraints."""
-    ei = segment_min_ei(column).tolist()
-    head = f"accuracy limited by round-off (estimated {floor:.1e} relative): "
     if tol is not None and floor < ORDINARY_ROUNDOFF:
-        return head + (f"the requested tolerance {tol:.0e} is finer than double precision resolves for this column "
-                       "(its round-off is ordinary); loosen [analysis] tolerance")
+        return (f"the requested tolerance {tol:.0e} is finer than double precision resolves for this column "
+                "(its round-off is ordinary); loosen [analysis] tolerance")
     ab = short_interval(column)
     if ab is not None:
-        return head + _short_interval_text(column, ab)
+        return _short_interval_text(column, ab)
+    ei = segment_min_ei(column).tolist()
     if max(ei) > EI_CONTRAST * min(ei):
-        return head + (f"the segments differ in stiffness (EI) by a factor of {max(ei) / min(ei):.1e} and the "
-                       "buckling mode moves the stiff ones almost as rigid bodies")
-    return head + ("the mode is held only by restraints that are very soft compared with the member "
-                   "(a near-mechanism); check the restraints")
+        return (f"the segments differ in stiffness (EI) by a factor of {max(ei) / min(ei):.1e} and the "
+                "buckling mode moves the stiff ones almost as rigid bodies")
+    return ("the mode is held only by restraints that are very soft compared with the member "
+            "(a near-mechanism); check the restraints")
+
+
+def _roundoff_warning(column: Column, floor: float, tol: float | None = None) -> str:
+    """The round-off warning with its estimate and likely cause (:func:`_roundoff_cause`)."""
+    return f"accuracy limited by round-off (estimated {floor:.1e} relative): {_roundoff_cause(column, floor, tol)}"
 
 
 def _richardson(now: float, before: float, earlier: float | None, orders: list[float]) -> tuple[float, float | None]:
@@ -502,7 +506,7 @@ def buckling(column: Column, n_modes: int = 3, tol: float = DEFAULT_TOL, method:
         msg = f"lowest load factor converged: estimated relative discretisation error {est:.1e} <= {tol:.0e}"
     elif roundoff_limited:
         msg = (f"lowest load factor limited by round-off: estimated relative error {est:.1e} > {tol:.0e}; cause: "
-               + _roundoff_warning(column, floor, tol).split(": ", 1)[1])
+               + _roundoff_cause(column, floor, tol))
     else:
         why = "largest mesh allowed" if capped else "deepest level"
         msg = (f"mesh refinement stopped at {mesh.n_el} elements ({why}): estimated relative error {est:.1e} > "

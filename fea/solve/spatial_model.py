@@ -15,7 +15,7 @@ import math
 from dataclasses import dataclass
 
 from ..errors import ModelError
-from ..model.column import FREE, STATION_TOL, _finite, _positive, _spring
+from ..model.column import FREE, STATION_TOL, _finite, _positive, _spring, merge_stations
 
 __all__ = ["SpatialSegment", "SpatialRestraint", "OffsetRestraint", "AxialLoad", "SpatialColumn", "REFERENCES"]
 
@@ -225,15 +225,7 @@ class SpatialColumn:
         xs = list(self.joints) + [r.at for r in self.restraints] + [p.at for p in self.loads]
         for o in self.offset_restraints:
             xs += [o.at] + ([o.to] if o.to is not None else [])
-        H = self.length
-        tol = STATION_TOL * H
-        xs = sorted(min(max(x, 0.0), H) for x in xs)
-        merged = [xs[0]]
-        for x in xs[1:]:
-            if x - merged[-1] > tol:
-                merged.append(x)
-        merged[0], merged[-1] = 0.0, H
-        return tuple(merged)
+        return merge_stations(xs, self.length)
 
     def segment_at(self, x: float) -> int:
         """Index of the segment holding station ``x`` (at a joint: the one after it, the last at the end)."""
