@@ -14,6 +14,11 @@ so the case's minor-axis restraints act on ``u`` (and ``u'``), its major-axis re
   station is held against twist ("rigid") where the restraints without offset hold both planes rigidly
   against lateral movement (a fork support: twist held, warping free), and free elsewhere.
 * Loads: the axial point loads of the case (variable and permanent) at the centroid.
+* Bending: when the case's major-axis plane carries moments (eccentric loads, lateral loads, applied moments),
+  the elastic critical moment of the member under that moment diagram alone, ``M_cr``
+  (:func:`case_critical_moment`): the first-order major-axis moment diagram of the planar column at the case
+  loads, linear between stations (a distributed lateral load's parabola is followed by :data:`CHORDS` chords
+  per interval), scaled by the lowest load factor of the thin-walled member under it.
 
 Not covered (the analysis is skipped with a note): distributed axial loads, foundations, leaning loads,
 tapered segments and shear flexibility.
@@ -22,26 +27,70 @@ tapered segments and shear flexibility.
 from __future__ import annotations
 
 import math
-from dataclasses import dataclass
+from dataclasses import dataclass, replace
 from typing import TYPE_CHECKING, Any, Sequence
+
+import numpy as np
 
 from ..errors import ModelError, SolverError
 from ..model import STATION_TOL
 from ..model.case import Case
+from ..model.column import merge_stations
 from ..results import BucklingResult
 from .spatial_model import AxialLoad, OffsetRestraint, SpatialColumn, SpatialRestraint, SpatialSegment
 
 if TYPE_CHECKING:
     from .spatial import SpatialResult
 
-__all__ = ["DEFAULT_NU", "RestraintTorsion", "SpatialInputs", "SpatialCase", "spatial_column", "run_spatial",
-           "NOT_COVERED"]
+__all__ = ["DEFAULT_NU", "RestraintTorsion", "SpatialInputs", "SpatialCase", "SegmentMoment", "CaseCriticalMoment",
+           "spatial_column", "run_spatial", "case_critical_moment", "NOT_COVERED", "CHORDS"]
 
 #: Poisson's ratio when the case gives neither G nor nu (common practice for steel): G = E / (2 (1 + nu)).
 DEFAULT_NU = 0.3
 
 #: The start of the note of a case the spatial analysis does not cover.
 NOT_COVERED = "not covered"
+
+#: Linear pieces per interval between stations that follow the parabolic moment of a distributed lateral load
+#: (the chord's largest departure from the parabola is 1/CHORDS^2 = 0.4% of the interval's own sag).
+CHORDS = 16
+
+
+@dataclass(frozen=True)
+class SegmentMoment:
+    """The major-axis moment of one segment and its elastic critical moment.
+
+    ``M_max`` [N m] the largest first-order moment in the segment at the case loads, at height ``at`` [m];
+    ``M_cr`` [N m] = the member's lateral-torsional load factor x ``M_max`` (inf where the segment carries no
+    moment).
+    """
+
+    index: int
+    name: str
+    M_max: float
+    at: float
+    M_cr: float
+
+
+@dataclass(frozen=True)
+class CaseCriticalMoment:
+    """The elastic critical moment of a case's member under its own major-axis moment diagram (axial loads
+    left out), per segment.
+
+    ``load_factor``: the lowest factor on the moment diagram at which the member buckles laterally;
+    ``kind``: the mode in plain words; ``senses``: "as given" for a section symmetric about its major axis,
+    "the lower of the two senses" otherwise (the moment's sense is not tied to the section's orientation, so
+    both are solved and the lower kept); ``chords``: pieces per interval used for a parabolic moment (0: the
+    diagram is exactly linear between stations); ``converged``/``message``: the solver's own statement.
+    """
+
+    load_factor: float
+    kind: str
+    senses: str
+    chords: int
+    segments: tuple[SegmentMoment, ...]
+    converged: bool
+    message: str
 
 
 @dataclass(frozen=True)
@@ -85,6 +134,9 @@ class SpatialCase:
     planar_load_factor: float
     planar_axis: str
     column: SpatialColumn | None = None
+    #: the elastic critical moment under the case's major-axis moments (None without such moments); a
+    #: ``str`` says why it could not be computed
+    critical_moment: "CaseCriticalMoment | str | None" = None
 
     @property
     def ran(self) -> bool:
@@ -205,4 +257,103 @@ def run_spatial(case: Case, results: Sequence[BucklingResult], inputs: SpatialIn
         result = spatial_buckling(column, n_modes=case.n_modes, tol=case.tolerance)
     except (ModelError, SolverError) as exc:
         return SpatialCase(None, f"not run: {exc}", names, lam, axis)
-    return SpatialCase(result, "", names, lam, axis, column)
+    mcr: CaseCriticalMoment | str | None
+    try:
+        mcr = case_critical_moment(case, column)
+    except (ModelError, SolverError) as exc:
+        mcr = f"not computed: {exc}"
+    return SpatialCase(result, "", names, lam, axis, column, mcr)
+
+
+def _major_actions(case: Case):
+    """The major-axis lateral actions of ``case`` (eccentricity moments, lateral loads, applied moments)."""
+    from ..model.imperfection import LateralSpec
+
+    spec = LateralSpec()
+    for s in (case.extras.get("lateral"), getattr(case.extras.get("imperfection"), "loads", None)):
+        if s is not None:
+            spec = spec.merged(s)
+    return spec.for_axis("major")
+
+
+def _first_order_moment(case: Case, actions) -> tuple[np.ndarray, np.ndarray, Any]:
+    """Element-end heights and first-order major-axis moments [N m] of the planar column at the case loads
+    (its axial loads left out: no P-delta), and the planar result."""
+    from .second_order import second_order
+
+    col = case.column("major")
+    bare = replace(col, point_loads=(), distributed_loads=(), leaning_loads=())
+    r = second_order(bare, None, actions, load_factors=[1.0], tol=case.tolerance if case.tolerance < 0.01 else 1e-6,
+                     axis="major")
+    return np.asarray(r.end_heights), np.asarray(r.first_order_moment[0]), r
+
+
+def case_critical_moment(case: Case, column: SpatialColumn) -> CaseCriticalMoment | None:
+    """The elastic critical moment of ``case``'s member under its major-axis moment diagram (None when the
+    major-axis plane carries no moment).
+
+    The first-order moment diagram of the planar column (:func:`fea.solve.second_order.second_order` with the
+    axial loads left out) is given to the thin-walled member as linear moments between its stations, each
+    segment cut at every station where the diagram changes slope or jumps; under a distributed lateral load
+    each interval is cut into :data:`CHORDS` chords.  ``M_cr`` of a segment = the lowest load factor of the
+    member under the diagram x the segment's largest moment.
+    """
+    from .spatial import critical_moment
+
+    actions = _major_actions(case)
+    if actions.empty:
+        return None
+    ends, M, _ = _first_order_moment(case, actions)
+    if not np.any(np.abs(M) > 0):
+        return None
+    H = column.length
+    tol = STATION_TOL * H
+    cuts = set(float(x) for x in column.stations())
+    cuts |= {float(a.at) for a in actions.point + actions.moments}
+    chords = 0
+    for d in actions.distributed:
+        cuts |= {float(d.bottom), float(d.top)}
+    base = sorted(cuts)
+    if actions.distributed:
+        chords = CHORDS
+        loaded = [(d.bottom, d.top) for d in actions.distributed]
+        for a, b in zip(base[:-1], base[1:]):
+            if any(lo - tol <= a and b <= hi + tol for lo, hi in loaded):
+                cuts |= {a + (b - a) * k / CHORDS for k in range(1, CHORDS)}
+    xs = merge_stations(sorted(cuts), H)
+
+    def moment(x: float, above: bool) -> float:
+        """The moment just above (or just below) ``x``, from the element ends of the planar mesh."""
+        n = ends.size // 2
+        lo, hi = ends[0::2], ends[1::2]
+        e = int(np.searchsorted(lo, x + tol, side="right") - 1) if above else int(np.searchsorted(hi, x - tol))
+        e = min(max(e, 0), n - 1)
+        a, b = lo[e], hi[e]
+        t = 0.0 if b <= a else min(max((x - a) / (b - a), 0.0), 1.0)
+        return float(M[2 * e] + t * (M[2 * e + 1] - M[2 * e]))
+
+    pieces, owner = [], []
+    for a, b in zip(xs[:-1], xs[1:]):
+        k = column.segment_at(0.5 * (a + b))
+        pieces.append(replace(column.segments[k], length=b - a, M1=moment(a, True), M2=moment(b, False)))
+        owner.append(k)
+    member = replace(column, segments=tuple(pieces), loads=())
+    mono = any(s.beta_y != 0 or s.z0 != 0 for s in column.segments)
+    best = critical_moment(member, tol=case.tolerance)
+    senses = "as given"
+    if mono:
+        other = critical_moment(replace(member, segments=tuple(replace(p, M1=-p.M1, M2=-p.M2) for p in pieces)),
+                                tol=case.tolerance)
+        senses = "the lower of the two senses"
+        if other.load_factor < best.load_factor:
+            best = other
+    lam = best.load_factor
+    segs = []
+    for k, s in enumerate(column.segments):
+        own = [(max(abs(p.M1), abs(p.M2)), a if abs(p.M1) >= abs(p.M2) else b)
+               for p, o, a, b in zip(pieces, owner, xs[:-1], xs[1:]) if o == k]
+        m, at = max(own) if own else (0.0, math.nan)
+        segs.append(SegmentMoment(k, s.name, float(m), float(at), lam * m if m > 0 else math.inf))
+    res = best.result
+    return CaseCriticalMoment(load_factor=lam, kind=res.kinds[0], senses=senses, chords=chords,
+                              segments=tuple(segs), converged=bool(res.converged), message=res.message)
