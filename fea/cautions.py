@@ -6,8 +6,8 @@ CAUTION = ("Stanchion assists a competent engineer; it does not replace the gove
 LIMITATIONS = (
     "Flexural buckling of a straight member about each principal axis; torsional and flexural-torsional "
     "buckling only where the thin-walled analysis runs (two planes, every segment given by a section shape, no "
-    "distributed load, foundation, leaning load, taper or shear flexibility); no member check with bending, no "
-    "local buckling.",
+    "distributed load, foundation, leaning load, taper or shear flexibility); no member check with bending (a "
+    "column that carries bending is not verified on its axial checks), no local buckling.",
     "Restraints are taken as given: their adequacy (strength, stiffness, connection detail) is not checked.",
     "All axial load is carried down the column to its base.",
 )

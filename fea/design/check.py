@@ -58,6 +58,10 @@ COMMON = {"A_net"}
 _NO_BUCKLING = 1e300
 
 
+#: How the load may reach a single angle (``[design] angle_load``).
+ANGLE_LOADS = ("concentric", "one leg")
+
+
 @dataclass(frozen=True)
 class DesignSpec:
     """The design method a case declares.
@@ -68,12 +72,15 @@ class DesignSpec:
     parameters : the standard's parameters for all segments (SI; defaults filled in)
     overrides : segment index (0-based) -> parameters that replace the common ones
     load_factor : multiplies every case load to give the design forces [-]
+    angle_load : how the load reaches a single angle: "concentric" (at its centroid, e.g. through both legs or
+        a cap plate), "one leg" (through one leg), or "" when not said (see :data:`ANGLE_LOADS`)
     """
 
     standard: str
     parameters: Mapping[str, Any]
     overrides: Mapping[int, Mapping[str, Any]] = field(default_factory=dict)
     load_factor: float = 1.0
+    angle_load: str = ""
 
     def __post_init__(self) -> None:
         if self.standard not in PARAMETERS:
@@ -81,6 +88,9 @@ class DesignSpec:
                                                 f"{', '.join(STANDARDS)}")
         if not (math.isfinite(self.load_factor) and self.load_factor > 0):
             raise ModelError("design.load_factor", f"{self.load_factor!r} must be a positive number")
+        if self.angle_load not in ("",) + ANGLE_LOADS:
+            raise ModelError("design.angle_load", f"{self.angle_load!r}: expected one of "
+                                                  f"{', '.join(repr(a) for a in ANGLE_LOADS)}")
         object.__setattr__(self, "parameters", MappingProxyType(dict(self.parameters)))
         object.__setattr__(self, "overrides", MappingProxyType(
             {int(k): MappingProxyType(dict(v)) for k, v in self.overrides.items()}))

@@ -32,7 +32,8 @@ from .sway import classify_sway
 if TYPE_CHECKING:
     from ..solve.spatial_case import SpatialCase
 
-__all__ = ["sways", "member_data", "segment_forces", "axis_buckling", "design_of_case", "NEEDS_FY"]
+__all__ = ["sways", "bending_unchecked", "single_angles", "ANGLE_ROUTE", "member_data", "segment_forces",
+           "axis_buckling", "design_of_case", "NEEDS_FY"]
 
 #: Standards whose resistance is built on the yield strength fy.
 NEEDS_FY = tuple(name for name, record in STANDARDS.items() if record.needs_fy)
@@ -121,8 +122,68 @@ def design_of_case(case: Case, results: Sequence[BucklingResult], spec: DesignSp
         if extra or notes:
             checks = sorted(result.checks + extra, key=lambda c: (c.segment, c.kind == "tension"))
             result = replace(result, checks=tuple(checks), notes=result.notes + notes)
-    unchecked = unchecked_modes(case, forces, covered) + ((() if checked else offset_restraints(case)))
+    angles = [i for i, (info, f) in enumerate(zip(case.segments, forces)) if f.compression > 0
+              and info.shape is not None and getattr(type(info.shape), "kind", "") == "angle"]
+    if angles and spec.angle_load == "concentric":
+        result = replace(result, notes=result.notes + tuple(
+            f"segment {i + 1} ('{case.segments[i].name}'): a single angle loaded at its centroid "
+            f"(angle_load = \"concentric\"): {ANGLE_ROUTE}" for i in angles))
+    unchecked = (unchecked_modes(case, forces, covered) + ((() if checked else offset_restraints(case)))
+                 + single_angles(case, spec, forces) + bending_unchecked(case))
     return replace(result, sway=sway, unchecked=unchecked)
+
+
+#: What the check of a single angle is, and what it leaves to the engineer (docs/design.md "Single angles").
+ANGLE_ROUTE = ("checked as a strut loaded at its centroid: flexural buckling about its principal axes and "
+               "flexural-torsional buckling from the thin-walled analysis (conservative where AISC 360 E3 "
+               "lets a compact angle neglect it, from memory); the standards' own rules for an angle connected "
+               "through one leg (EN 1993-1-1 Annex BB.1.2, AISC 360 E5, from memory) are not applied")
+
+
+def single_angles(case: Case, spec: DesignSpec, forces: Sequence[SegmentForces]) -> tuple[str, ...]:
+    """A single angle in compression passes only when the case says its load arrives at the centroid
+    (``[design] angle_load = "concentric"``): an angle connected through one leg is loaded off its centroid, and
+    the standards treat it by rules of their own that these checks do not apply."""
+    if spec.angle_load == "concentric":
+        return ()
+    out = []
+    for i, (info, f) in enumerate(zip(case.segments, forces)):
+        kind = getattr(type(info.shape), "kind", "") if info.shape is not None else ""
+        if kind != "angle" or f.compression <= 0:
+            continue
+        if spec.angle_load == "one leg":
+            out.append(f"segment {i + 1} ('{info.name}'): a single angle loaded through one leg: the standard's own "
+                       "rules for it (EN 1993-1-1 Annex BB.1.2, AISC 360 E5, from memory) are not offered; model "
+                       "the eccentricity of the connection as a moment instead, or check it by hand")
+        else:
+            out.append(f"segment {i + 1} ('{info.name}'): a single angle: say how its load arrives "
+                       "([design] angle_load = \"concentric\" when at its centroid, \"one leg\" when through one "
+                       "leg); it is " + ANGLE_ROUTE)
+    return tuple(out)
+
+
+def bending_unchecked(case: Case) -> tuple[str, ...]:
+    """A column that carries bending moments (eccentric loads, lateral loads, applied moments) is not checked by
+    its axial force alone: the sentence saying so, or nothing when the case has no such actions."""
+    specs = [case.extras.get("lateral"), getattr(case.extras.get("imperfection"), "loads", None)]
+    what: dict[str, None] = {}
+    planes: dict[str, None] = {}
+    for spec in specs:
+        if spec is None:
+            continue
+        for label, items, nonzero in (
+                ("lateral point loads", spec.point, lambda a: a.force != 0),
+                ("lateral distributed loads", spec.distributed, lambda a: a.q_bottom != 0 or (a.q_top or 0) != 0),
+                ("moments from eccentric loads or applied moments", spec.moments, lambda a: a.moment != 0)):
+            for axis, action in items:
+                if nonzero(action):
+                    what.setdefault(label)
+                    planes.setdefault(axis or "both")
+    if not what:
+        return ()
+    where = "both planes" if "both" in planes or len(planes) > 1 else f"the {next(iter(planes))}-axis plane"
+    return (f"the column carries bending ({', '.join(what)}, {where}): its axial checks alone do not cover "
+            "the member with bending (axial force and moment together)",)
 
 
 def offset_restraints(case: Case) -> tuple[str, ...]:

@@ -7,7 +7,7 @@ import math
 import re
 from typing import Any
 
-from ..design.check import PARAMETERS, PER_AXIS, DesignSpec
+from ..design.check import ANGLE_LOADS, PARAMETERS, PER_AXIS, DesignSpec
 from ..design.curves import AS4100_ALPHA_B, BS5950_ROBERTSON, EN1993_IMPERFECTION
 from ..errors import CaseError, ModelError
 from ..quantity import NUMBER_PATTERN
@@ -107,12 +107,17 @@ def parse_design(table: dict, doc: dict) -> DesignSpec:
         raise CaseError("design.standard", f"{standard!r} is not a known standard{hint}; expected one of "
                                            f"{', '.join(repr(s) for s in PARAMETERS)}")
     allowed = _allowed_keys(standard)
-    check_keys(table, "design", allowed | {"standard", "load_factor", "segment"})
+    check_keys(table, "design", allowed | {"standard", "load_factor", "segment", "angle_load"})
     params: dict[str, Any] = {k: v for k, v in PARAMETERS[standard].items() if v is not None}
     for k, v in table.items():
         if k in allowed:
             params[k] = _param(standard, k, v, f"design.{k}")
     load_factor = _number(table.get("load_factor", 1.0), "design.load_factor", high=100.0)
+    angle_load = table.get("angle_load", "")
+    if "angle_load" in table and angle_load not in ANGLE_LOADS:
+        raise CaseError("design.angle_load", f"{angle_load!r}: expected one of "
+                                             f"{', '.join(repr(a) for a in ANGLE_LOADS)} (how the load reaches a "
+                                             "single angle)")
     overrides: dict[int, dict[str, Any]] = {}
     seg_tables = table.get("segment", [])
     if isinstance(seg_tables, dict):
@@ -143,7 +148,8 @@ def parse_design(table: dict, doc: dict) -> DesignSpec:
             raise CaseError("material.sigma_allow", "missing: the working-stress check needs the material's "
                                                     "allowable compressive stress, e.g. sigma_allow = '7.5 MPa'")
     try:
-        return DesignSpec(standard=standard, parameters=params, overrides=overrides, load_factor=load_factor)
+        return DesignSpec(standard=standard, parameters=params, overrides=overrides, load_factor=load_factor,
+                          angle_load=angle_load)
     except ModelError as exc:  # pragma: no cover - checked above
         raise CaseError(exc.field, exc.message) from None
 
