@@ -44,3 +44,19 @@ def test_command_without_plot_skips_matplotlib_and_optimizers():
     assert "matplotlib" not in mods
     assert "scipy.optimize" not in mods
     assert "scipy.sparse" not in mods
+
+
+def test_command_asks_for_one_blas_thread_unless_told():
+    """The command sets one BLAS thread before numpy loads, and keeps a count the user gave."""
+    import os
+    import subprocess
+    import sys
+
+    code = ("import os, sys; from fea.cli import one_blas_thread; one_blas_thread(); import numpy; "
+            "print(os.environ['OPENBLAS_NUM_THREADS'], os.environ['OMP_NUM_THREADS'])")
+    env = {k: v for k, v in os.environ.items() if k not in ("OPENBLAS_NUM_THREADS", "OMP_NUM_THREADS")}
+    out = subprocess.run([sys.executable, "-c", code], env=env, capture_output=True, text=True, check=True)
+    assert out.stdout.split() == ["1", "1"]
+    env["OPENBLAS_NUM_THREADS"] = "3"
+    out = subprocess.run([sys.executable, "-c", code], env=env, capture_output=True, text=True, check=True)
+    assert out.stdout.split() == ["3", "1"]
