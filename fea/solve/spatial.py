@@ -41,6 +41,11 @@ Discretisation: every interval between stations is split into ``2**level`` equal
 each field a cubic Hermite interpolant; the mesh is doubled until the Richardson estimate of every
 reported load factor is within the tolerance, with the order observed from three levels (about 4),
 as :mod:`fea.solve.eigen` does for the plane column.
+
+Storage and solvers: the global matrices are assembled in diagonal (banded) storage, 11 diagonals on
+each side, and reduced there (rigid restraints removed); a reduced system of up to :data:`DENSE_MAX`
+unknowns is expanded and solved dense with numpy alone, a larger one by a banded Cholesky factor and
+ARPACK.  Rigid offset restraints (DOFs that follow others) are reduced dense, ``T^T A T``.
 """
 
 from __future__ import annotations
@@ -179,32 +184,106 @@ def _offset_from_sc(s: SpatialSegment, o: OffsetRestraint) -> tuple[float, float
 
 
 # -- assembly -----------------------------------------------------------------------------------------------------
+#: Half-bandwidth of the global matrices in the full numbering: an element couples 12 consecutive DOFs.
+HALF_BAND = 11
+
+
 def _scatter(n_dof: int, mats: np.ndarray) -> np.ndarray:
-    """Dense global matrix from element matrices (n_el, 12, 12) on consecutive nodes."""
+    """Global matrix from element matrices (n_el, 12, 12) on consecutive nodes, in diagonal storage.
+
+    Returns ``B`` (2 w + 1, n_dof), ``w = HALF_BAND``, with ``B[w + i - j, j] = A[i, j]`` (the banded form of
+    ``scipy.linalg.solve_banded`` with ``w`` diagonals on each side).  The terms of each entry are summed in
+    element order, as a dense scatter sums them: the stored values are the dense matrix's to the last bit.
+    """
     n_el = mats.shape[0]
-    dofs = 6 * np.arange(n_el)[:, None] + np.arange(12)[None, :]
-    idx = (dofs[:, :, None] * n_dof + dofs[:, None, :]).ravel()
-    return np.bincount(idx, weights=mats.ravel(), minlength=n_dof * n_dof).reshape(n_dof, n_dof)
+    w = HALF_BAND
+    i = np.arange(12)
+    idx = ((w + i[:, None] - i[None, :])[None] * n_dof + 6 * np.arange(n_el)[:, None, None] + i[None, None, :]).ravel()
+    return np.bincount(idx, weights=mats.ravel(), minlength=(2 * w + 1) * n_dof).reshape(2 * w + 1, n_dof)
+
+
+def _half(B: np.ndarray) -> int:
+    """Number of diagonals on each side of the main one held by the diagonal storage ``B``."""
+    return (B.shape[0] - 1) // 2
+
+
+def _rows(B: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
+    """Row and column of every entry of the diagonal storage ``B`` (rows out of range included)."""
+    w, n = _half(B), B.shape[1]
+    cols = np.broadcast_to(np.arange(n)[None, :], B.shape)
+    return cols + np.arange(-w, w + 1)[:, None], cols
+
+
+def _diagonal_slices(n: int, w: int) -> list[tuple[int, slice, slice]]:
+    """For each stored diagonal ``d`` of an (n, n) matrix: its row ``w + d`` of the storage, the slice of that
+    row it fills, and the slice of the flattened matrix it occupies."""
+    out = []
+    for d in range(-min(w, n - 1), min(w, n - 1) + 1):
+        if d >= 0:  # A[j + d, j], j = 0 .. n - d - 1
+            out.append((w + d, slice(0, n - d), slice(d * n, n * n, n + 1)))
+        else:  # A[j + d, j], j = -d .. n - 1
+            out.append((w + d, slice(-d, n), slice(-d, (n + d) * n, n + 1)))
+    return out
+
+
+def _to_dense(B: np.ndarray) -> np.ndarray:
+    """The dense (n, n) matrix of the diagonal storage ``B``."""
+    n = B.shape[1]
+    A = np.zeros((n, n))
+    flat = A.reshape(-1)
+    for k, part, at in _diagonal_slices(n, _half(B)):
+        flat[at] = B[k, part]
+    return A
+
+
+def _to_diagonals(A: np.ndarray, w: int) -> np.ndarray:
+    """Diagonal storage (2 w + 1, n) of a dense matrix that is zero outside ``w`` diagonals on each side."""
+    n = A.shape[0]
+    B = np.zeros((2 * w + 1, n))
+    flat = A.reshape(-1)
+    for k, part, at in _diagonal_slices(n, w):
+        B[k, part] = flat[at]
+    return B
+
+
+def _bandwidth(A: np.ndarray) -> int:
+    """Largest distance from the diagonal of a nonzero of the dense matrix ``A``."""
+    rows, cols = np.nonzero(A)
+    return int(np.max(np.abs(rows - cols), initial=0))
 
 
 @dataclass
 class _System:
-    K: np.ndarray  # elastic stiffness with springs (full numbering)
+    K: np.ndarray  # elastic stiffness with springs (full numbering, diagonal storage)
     Kel: np.ndarray  # (n_el, 12, 12) element elastic matrices (energy shares)
-    A_perm: np.ndarray
+    A_perm: np.ndarray | None  # None: no permanent axial load
     A_var: np.ndarray
     T: np.ndarray | None  # full = T @ reduced when there are slave relations
     free: np.ndarray  # kept DOFs (full numbering) when T is None
     N_var: np.ndarray  # (n_el,)
     N_perm: np.ndarray
-    reduced: tuple[np.ndarray, np.ndarray, np.ndarray] | None = None  # (K, K + A_perm, A_var), reduced numbering
+    reduced: tuple[np.ndarray, np.ndarray, np.ndarray] | None = None  # (K, K + A_perm, A_var), reduced, diagonals
 
 
 def _reduced(sys: _System) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
-    """The reduced elastic stiffness, stiffness with the permanent loads, and variable-load matrix (computed once)."""
+    """The reduced elastic stiffness, stiffness with the permanent loads, and variable-load matrix, in diagonal
+    storage (computed once)."""
     if sys.reduced is None:
-        K0 = _reduce(sys, sys.K)
-        sys.reduced = (K0, K0 + _reduce(sys, sys.A_perm), _reduce(sys, sys.A_var))
+        if sys.T is None:
+            if sys.A_perm is None:
+                K0, A_var = _reduce_free(sys.free, sys.K, sys.A_var)
+                Keff = K0
+            else:
+                K0, A_perm, A_var = _reduce_free(sys.free, sys.K, sys.A_perm, sys.A_var)
+                Keff = K0 + A_perm
+            sys.reduced = (K0, Keff, A_var)
+        else:
+            T = sys.T
+            K0d = T.T @ _to_dense(sys.K) @ T
+            Keffd = K0d if sys.A_perm is None else K0d + T.T @ _to_dense(sys.A_perm) @ T
+            Ad = T.T @ _to_dense(sys.A_var) @ T
+            w = max(_bandwidth(K0d), _bandwidth(Keffd), _bandwidth(Ad))
+            sys.reduced = (_to_diagonals(K0d, w), _to_diagonals(Keffd, w), _to_diagonals(Ad, w))
     return sys.reduced
 
 
@@ -233,7 +312,10 @@ def _assemble(col: SpatialColumn, mesh: _Mesh) -> _System:
     N_var, N_perm = _axial(col, mid, False), _axial(col, mid, True)
     zero = np.zeros_like(mid)
     A_var = _scatter(n_dof, el.geometric(mesh.h, N_var, M, i0sq, prop["y0"], prop["z0"], prop["beta_y"]))
-    A_perm = _scatter(n_dof, el.geometric(mesh.h, N_perm, np.zeros_like(M), i0sq, prop["y0"], prop["z0"], zero))
+    A_perm = None  # no permanent load: its matrix is zero
+    if np.any(N_perm != 0):
+        A_perm = _scatter(n_dof, el.geometric(mesh.h, N_perm, np.zeros_like(M), i0sq, prop["y0"], prop["z0"], zero))
+    w = HALF_BAND
 
     zero_dofs: set[int] = set()
     slaves: dict[int, tuple[int, float]] = {}  # slave dof -> (master dof, coefficient)
@@ -242,7 +324,7 @@ def _assemble(col: SpatialColumn, mesh: _Mesh) -> _System:
         if math.isinf(k):
             zero_dofs.add(dof)
         elif k > 0:
-            K[dof, dof] += k
+            K[w, dof] += k
 
     for r in col.restraints:
         b = 6 * _node_at(col, mesh, r.at)
@@ -263,7 +345,11 @@ def _assemble(col: SpatialColumn, mesh: _Mesh) -> _System:
             if math.isinf(k):
                 slaves[d] = (b + 4, -c)  # d = -c phi
             elif k > 0:
-                K[np.ix_([d, b + 4], [d, b + 4])] += k * np.array([[1.0, c], [c, c * c]])
+                m2 = k * np.array([[1.0, c], [c, c * c]])  # on the DOFs (d, twist)
+                K[w, d] += m2[0, 0]
+                K[w + d - (b + 4), b + 4] += m2[0, 1]
+                K[w + (b + 4) - d, d] += m2[1, 0]
+                K[w, b + 4] += m2[1, 1]
     for o in ranged:
         inside = (mid > o.at) & (mid < o.to)
         if not np.any(inside):
@@ -313,10 +399,22 @@ def _reduction(n: int, zero: set[int], slaves: dict[int, tuple[int, float]]) -> 
     return T, free
 
 
-def _reduce(sys: _System, A: np.ndarray) -> np.ndarray:
-    if sys.T is None:
-        return A[np.ix_(sys.free, sys.free)]
-    return sys.T.T @ A @ sys.T
+def _reduce_free(free: np.ndarray, *mats: np.ndarray) -> list[np.ndarray]:
+    """``A[free][:, free]`` of each matrix in diagonal storage (all of one width), in diagonal storage."""
+    w, n = _half(mats[0]), free.size
+    out = np.zeros((2 * w + 1, n))
+    r, c = _rows(out)
+    ok = (r >= 0) & (r < n)
+    rows, cols = free[r[ok]], free[c[ok]]
+    near = np.abs(rows - cols) <= w  # the other terms are zero: outside the band of the full matrix
+    at = np.flatnonzero(ok)[near]
+    src = (w + rows[near] - cols[near]) * mats[0].shape[1] + cols[near]
+    reduced = []
+    for B in mats:
+        R = out.copy()
+        R.flat[at] = B.flat[src]
+        reduced.append(R)
+    return reduced
 
 
 def _expand(sys: _System, vec: np.ndarray) -> np.ndarray:
@@ -343,7 +441,7 @@ def _cholesky(K: np.ndarray) -> tuple[np.ndarray, np.ndarray] | None:
 
 
 def _mechanism(sys: _System) -> str:
-    K = _reduced(sys)[0]
+    K = _to_dense(_reduced(sys)[0])
     if sys.T is None:
         names = {0: "the displacement u (minor-axis direction)", 2: "the displacement v (major-axis direction)",
                  4: "the twist"}
@@ -359,26 +457,18 @@ def _mechanism(sys: _System) -> str:
 DENSE_MAX = 300
 
 
-def _band(A: np.ndarray, bw: int) -> np.ndarray:
-    """Lower banded storage of a symmetric dense matrix."""
-    n = A.shape[0]
-    ab = np.zeros((bw + 1, n))
-    for d in range(bw + 1):
-        ab[d, : n - d] = np.diagonal(A, -d)
-    return ab
-
-
 def _eig_banded(K: np.ndarray, G: np.ndarray, m: int) -> tuple[np.ndarray, np.ndarray] | None:
-    """Largest ``mu`` of ``G x = mu K x`` (``K`` scaled to a unit diagonal): banded Cholesky and ARPACK."""
+    """Largest ``mu`` of ``G x = mu K x`` (diagonal storage, ``K`` scaled to a unit diagonal): banded Cholesky
+    and ARPACK; each triangular solve by the LAPACK banded LU that ``scipy.linalg.solve_banded`` uses, factored
+    once."""
     import scipy.linalg as sla
+    from scipy.linalg.lapack import dgbtrf, dgbtrs
     from scipy.sparse.linalg import LinearOperator, eigsh
 
-    n = K.shape[0]
-    rows, cols = np.nonzero(K != 0)
-    g_rows, g_cols = np.nonzero(G != 0)
-    bw = int(max(np.max(rows - cols, initial=0), np.max(g_rows - g_cols, initial=0)))
+    w, n = _half(K), K.shape[1]
+    bw = max((d for d in range(w + 1) if np.any(K[w + d] != 0) or np.any(G[w + d] != 0)), default=0)
     try:
-        cb = sla.cholesky_banded(_band(K, bw), lower=True, check_finite=False)
+        cb = sla.cholesky_banded(K[w : w + bw + 1], lower=True, check_finite=False)
     except np.linalg.LinAlgError:
         return None
     if float(np.min(cb[0])) ** 2 < 64 * np.finfo(float).eps:
@@ -386,21 +476,31 @@ def _eig_banded(K: np.ndarray, G: np.ndarray, m: int) -> tuple[np.ndarray, np.nd
     ub = np.zeros_like(cb)
     for d in range(bw + 1):
         ub[bw - d, d:] = cb[d, : n - d]
-    gb = _band(G, bw)
+    gb = G[w : w + bw + 1]
+    # L^T and L factored once by the banded LU that solve_banded runs on every call: the same digits, less work
+    upper, piv_u, info_u = dgbtrf(ub, 0, bw)
+    low = np.zeros((2 * bw + 1, n))
+    low[bw:] = cb
+    lower, piv_l, info_l = dgbtrf(low, bw, 0, overwrite_ab=True)
+    if info_u != 0 or info_l != 0:
+        raise SolverError("the banded factor of the stiffness is singular")
+
+    def solve_upper(b: np.ndarray) -> np.ndarray:
+        return dgbtrs(upper, 0, bw, b, piv_u)[0]
 
     def matvec(x: np.ndarray) -> np.ndarray:
-        z = sla.solve_banded((0, bw), ub, np.ravel(x), check_finite=False)
+        z = solve_upper(np.ravel(x)[:, None])[:, 0]
         gz = gb[0] * z
         for d in range(1, bw + 1):
             gz[d:] += gb[d, : n - d] * z[: n - d]
             gz[: n - d] += gb[d, : n - d] * z[d:]
-        return sla.solve_banded((bw, 0), cb, gz, check_finite=False)
+        return dgbtrs(lower, bw, 0, gz[:, None], piv_l)[0][:, 0]
 
     op = LinearOperator((n, n), matvec=matvec, dtype=float)
     v0 = np.cos(np.arange(n) * 0.7548776662466927) + 1.5  # fixed start: the same digits on every run
     mu, y = eigsh(op, k=min(m, n - 2), which="LA", tol=1e-14, ncv=min(n, max(2 * m + 1, 24)), v0=v0)
     order = np.argsort(mu)[::-1]
-    return mu[order], sla.solve_banded((0, bw), ub, y[:, order], check_finite=False)
+    return mu[order], solve_upper(y[:, order])
 
 
 def _eigen(sys: _System, n_modes: int) -> tuple[np.ndarray, np.ndarray]:
@@ -410,18 +510,20 @@ def _eigen(sys: _System, n_modes: int) -> tuple[np.ndarray, np.ndarray]:
     if n == 0:
         raise ModelError("restraints", "every degree of freedom is rigidly restrained; nothing can buckle")
     K0, Keff, A_var = _reduced(sys)
-    d = Keff.diagonal()
+    d = Keff[_half(Keff)].copy()
     if not np.all(d > 0):
         raise ModelError("restraints", _mechanism(sys))
     s = 1.0 / np.sqrt(d)
-    Ks = Keff * s[:, None] * s[None, :]
-    G = -A_var * s[:, None] * s[None, :]
     m = min(n_modes, n)
     out = None
     with np.errstate(all="ignore"):
         if n > DENSE_MAX:
-            out = _eig_banded(Ks, G, m)
+            r, c = _rows(Keff)
+            si, sj = s[np.clip(r, 0, n - 1)], s[c]
+            out = _eig_banded(Keff * si * sj, -A_var * si * sj, m)
         else:
+            Ks = _to_dense(Keff) * s[:, None] * s[None, :]
+            G = -_to_dense(A_var) * s[:, None] * s[None, :]
             fac = _cholesky(Ks)
             if fac is not None:
                 L = fac[0]
@@ -431,7 +533,7 @@ def _eigen(sys: _System, n_modes: int) -> tuple[np.ndarray, np.ndarray]:
                 mu, y = mu[::-1][:m], y[:, ::-1][:, :m]
                 out = mu, np.linalg.solve(L.T, y)
     if out is None:
-        if _cholesky(K0) is None:
+        if _cholesky(_to_dense(K0)) is None:
             raise ModelError("restraints", _mechanism(sys))
         raise ModelError("loads", "the permanent loads alone exceed the elastic critical load")
     mu, vec = out
@@ -448,7 +550,7 @@ def _roundoff(sys: _System, vec: np.ndarray) -> np.ndarray:
     ``rho`` is the share of the diagonal stiffness a mode mobilises; it falls as ``h^2`` to ``h^4``
     on fine meshes (the terms ``E I / h^3`` cancel down to ``E I`` times the curvature squared).
     """
-    K = _reduced(sys)[1]
+    K = _to_dense(_reduced(sys)[1])  # dense: the order of its sums sets the last digits of the estimate
     d = np.abs(K.diagonal())
     rho = np.einsum("im,ij,jm->m", vec, K, vec) / np.einsum("im,i,im->m", vec, d, vec)
     return np.finfo(float).eps / np.maximum(rho, 1e-300)
@@ -502,8 +604,8 @@ def spatial_buckling(column: SpatialColumn, n_modes: int = 3, tol: float = DEFAU
     capped = roundoff_limited = False
     floor = np.zeros(n_modes)
     level = 0
+    mesh = _build_mesh(column, level)
     while True:
-        mesh = _build_mesh(column, level)
         sys = _assemble(column, mesh)
         lam, vec = _eigen(sys, n_modes)
         if lam.size == 0:
@@ -538,6 +640,7 @@ def spatial_buckling(column: SpatialColumn, n_modes: int = 3, tol: float = DEFAU
             capped = True
             break
         level += 1
+        mesh = nxt
     m = lam.size
     est = est[:m]
     converged = bool(np.all(est <= tol)) and not (capped and not np.all(est <= tol))
