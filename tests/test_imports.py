@@ -53,6 +53,7 @@ LAYERS: list[tuple[str, tuple[str, ...]]] = [
     ("plot", ("fea/plot/*",)),
     ("report", ("fea/report/*",)),
     ("pipeline", ("fea/pipeline.py",)),
+    ("explore", ("fea/explore/*",)),
     ("cli", ("fea/cli/*", "fea/__init__.py", "fea/__main__.py")),
 ]
 

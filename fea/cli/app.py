@@ -18,7 +18,7 @@ import sys
 
 from ..cautions import CAUTION
 from ..errors import FeaError
-from . import bounds, brace, check, init, report, sensitivity, size, sweep
+from . import bounds, brace, check, explore, init, report, sensitivity, size, sweep
 from .common import EXIT_BAD_INPUT, EXIT_BROKEN_PIPE, EXIT_FAILED_CHECK, EXIT_INTERNAL, EXIT_OK, Parser
 
 __all__ = ["main", "build_parser", "SUBCOMMANDS", "EXIT_OK", "EXIT_FAILED_CHECK", "EXIT_BAD_INPUT", "EXIT_INTERNAL"]
@@ -34,6 +34,7 @@ SUBCOMMANDS = (
     brace,
     sensitivity,
     bounds,
+    explore,
 )
 
 

@@ -32,8 +32,8 @@ from ..model import Column
 from ..results import K_AXIAL_RATIO_MIN, K_ENERGY_SHARE_MIN, BucklingResult, SegmentBuckling
 from .solvable import PIVOT_MIN, banded_lower, bandwidth, positive_definite, rigid_body_mechanism, scaled_cholesky
 
-__all__ = ["buckling", "solve_assembled", "roundoff_floor", "short_interval", "DENSE_MAX_DOF", "DEFAULT_TOL",
-           "MAX_LEVEL", "MAX_ELEMENTS"]
+__all__ = ["buckling", "package_result", "solve_assembled", "roundoff_floor", "short_interval", "DENSE_MAX_DOF",
+           "DEFAULT_TOL", "MAX_LEVEL", "MAX_ELEMENTS"]
 
 logger = logging.getLogger(__name__)
 
@@ -515,11 +515,13 @@ def buckling(column: Column, n_modes: int = 3, tol: float = DEFAULT_TOL, method:
         bad = [i + 2 for i in range(mode_est.size) if not mode_est[i] <= tol]
         msg += (f"; higher mode(s) {', '.join(map(str, bad))} short of the tolerance (estimated "
                 f"{', '.join(f'{mode_est[i - 2]:.1e}' for i in bad)})")
-    res = _package(column, mesh, asm, lam, vec, solver, np.array(history), est, tol, converged, msg, axis)
+    res = package_result(column, mesh, asm, lam, vec, solver, np.array(history), est, tol, converged, msg, axis)
     return replace(res, roundoff_error=floor, warnings=warns, mode_errors=np.concatenate([[est], mode_est]))
 
 
-def _package(column, mesh, asm, lam, vec, solver, history, est, tol, converged, msg, axis) -> BucklingResult:
+def package_result(column, mesh, asm, lam, vec, solver, history, est, tol, converged, msg, axis) -> BucklingResult:
+    """The one packaging of eigenpairs into a :class:`BucklingResult`: full mode shapes with their sign fixed,
+    per-segment forces, N_cr, K and energy shares (used by :func:`buckling` and by the explorer's fast path)."""
     n_modes = lam.size
     full = np.zeros((asm.n_full, n_modes))
     full[asm.free] = vec
