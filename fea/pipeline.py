@@ -109,10 +109,18 @@ def _imperfect_figures(result, display, case: Case) -> dict:
 
 
 def _design_figures(result, display, case: Case) -> dict:
-    """The utilisation chart of the design check."""
+    """The utilisation chart of the design check, and the moment diagrams of its member checks with bending."""
+    from .io.design_output import moment_unit
     from .plot.design import plot_utilisation
 
-    return {"utilisation": plot_utilisation(result).figure}
+    out = {"utilisation": plot_utilisation(result).figure}
+    if result.bending is not None and result.bending.actions:
+        from .plot.moments import plot_moments
+
+        bounds = tuple(case.planes[0][1].joints[1:-1])
+        out["moments"] = plot_moments(result.bending, length_unit=(display.length, display.length_si),
+                                      moment_unit=moment_unit(display), title=case.title, segment_bounds=bounds)
+    return out
 
 
 #: The analyses ``check`` and ``report`` run after the elastic buckling of every plane, in this order.

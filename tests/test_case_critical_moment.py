@@ -136,3 +136,11 @@ def test_monosymmetric_section_takes_the_lower_sense():
     # reversing the moments gives the same (lower) M_cr: both senses were solved
     _, m2 = critical(text.format(load="", lateral=end_moments(-5, 0)))
     assert m2.segments[0].M_cr == pytest.approx(m.segments[0].M_cr, rel=1e-6)
+
+
+def test_eccentricity_counted_once_with_both_tables():
+    # [imperfection] and [lateral] both present: the eccentric load's moment is taken once, as the imperfect-column
+    # analysis takes it (a regression: it was counted from both tables)
+    text = I_COLUMN.format(load='eccentricity_major = "80 mm"', lateral="") + '\n[imperfection]\nbow = "L/1000"\n'
+    _, m = critical(text)
+    assert m.segments[0].M_max == pytest.approx(8e3, rel=1e-9)

@@ -1,4 +1,5 @@
-"""Every written-out design formula the report shows re-works by hand to the result it states (issue 10).
+"""Every written-out design formula the report shows re-works by hand to the result it states (issue 10; the
+member checks with bending, issue 15).
 
 The report's design part prints each step of a standard's record as
 ``symbol = formula = formula with numbers = result``.  Here each line with
@@ -35,8 +36,10 @@ UREG = registry()
 UNIT_WORDS = {"MPa"}
 SUPERSCRIPT = str.maketrans("⁰¹²³⁴⁵⁶⁷⁸⁹⁻", "0123456789-")
 #: Display units: the report's usual ones, and SI base units (other rounding, other magnitudes).
-UNITS = {"kN": SimpleNamespace(force="kN", stress="MPa", area="cm^2"),
-         "SI": SimpleNamespace(force="N", stress="Pa", area="mm^2")}
+UNITS = {"kN": SimpleNamespace(force="kN", stress="MPa", area="cm^2", length="m", section="cm", section_modulus="cm^3",
+                               inertia="cm^4", force_si=1e3, length_si=1.0),
+         "SI": SimpleNamespace(force="N", stress="Pa", area="mm^2", length="m", section="mm", section_modulus="mm^3",
+                               inertia="mm^4", force_si=1.0, length_si=1.0)}
 
 
 def shown(text: str) -> tuple[float, float]:
@@ -206,3 +209,60 @@ def test_every_constant_the_records_print_is_a_published_one():
     for ref, consts in FORMULA_CONSTANTS.items():
         if consts:
             assert consts <= CONSTANTS[ref], (ref, consts - CONSTANTS.get(ref, set()))
+
+
+# -- the member checks with bending (issue 15): every written-out step of every route ------------------------------
+
+ROOT = __import__("pathlib").Path(__file__).resolve().parent.parent
+#: Cases whose checks with bending take every branch the report prints: Annex B with a class 3 web, chi_LT by
+#: 6.3.2.2 (and by 6.3.2.3 with k_c and f) and the Table 5.1 bows (the EN crane demo); Annex A with 6.3.2.3, a
+#: finite M_cr and 6.2.9.1 of a class 2 I section (a braced I column with a bracket); Annex A of a hollow section (no
+#: lateral-torsional buckling); AISC H1.1 with F2 on the analysis's M_cr (the AISC crane demo) and with F7 (a hollow
+#: section).
+BENDING_CASES = {
+    "crane EN": (ROOT / "cases" / "crane_bracket_column_en.toml", ""),
+    "crane EN, 6.3.2.3": (ROOT / "cases" / "crane_bracket_column_en.toml", 'ltb = "rolled"\n'),
+    "crane AISC": (ROOT / "cases" / "crane_bracket_column_aisc.toml", ""),
+    "I column, Annex A, 6.3.2.3": (None, "I"),
+    "hollow section, Annex A": (None, "RHS-A"),
+    "hollow section, AISC": (None, "RHS-AISC"),
+}
+
+
+def _bending_case(path, kind: str) -> str:
+    from .test_design_bending import AISC_DESIGN, EN_I, I_COLUMN, PINNED
+
+    if path is not None:
+        return path.read_text(encoding="utf-8") + kind  # [design] is the file's last table
+    if kind == "I":
+        return I_COLUMN.format(extra="", design=EN_I + '\ninteraction = "A"\nltb = "rolled"\nsection_class = 2')
+    if kind == "RHS-A":
+        return PINNED + '[design]\nstandard = "EN 1993-1-1"\ncurve = "a"\ninteraction = "A"\nbow = "5.3.2(11)"\n'
+    return PINNED + AISC_DESIGN
+
+
+@pytest.fixture(scope="module")
+def bending_parts():
+    out = {}
+    for name, (path, kind) in BENDING_CASES.items():
+        out[name] = result_dict(run_case(parse_case(_bending_case(path, kind))))["design"]
+    return out
+
+
+@pytest.mark.parametrize("units", list(UNITS))
+@pytest.mark.parametrize("name", list(BENDING_CASES))
+def test_every_written_out_bending_formula_reworks_to_its_stated_result(bending_parts, name, units):
+    from fea.report.design_bending import bending_blocks
+
+    part = bending_parts[name]["bending"]
+    assert part["routes"], name
+    calcs = [b for b in bending_blocks(part, UNITS[units]) if isinstance(b, Calc)]
+    assert len(calcs) == sum(len(r["checks"]) for r in part["routes"])
+    worked = 0
+    for calc in calcs:
+        for line in calc.lines:
+            for got, stated, tol in rework(line):
+                assert abs(got - stated) <= tol, f"{name}: {got!r} vs {stated!r} ± {tol:g}"
+                worked += 1
+    steps = sum(len(c["steps"]) for r in part["routes"] for c in r["checks"])
+    assert worked >= steps // 2, (worked, steps)

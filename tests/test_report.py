@@ -25,6 +25,9 @@ DATE = "2026-12-01"
 #: Published names with digits the report may print as they are: the hash algorithm, and the subscripts of
 #: the partial factors gamma_M0, gamma_M1, gamma_M2 (EN 1993-1-1:2005 6.1).
 NAMES = {"SHA-256", "M0", "M1", "M2"}
+#: ... and the subscripts with digits of the member checks with bending (fea/report/design_bending.py): EN
+#: 1993-1-1 6.3.2.2 lambda_LT,0, Annex A lambda_0, M_cr,0, C_1, C_my,0, C_mz,0; AISC 360 Appendix 8 M_1/M_2, B_1, P_e1.
+NAMES |= {"LT,0", "0", "cr,0", "1", "my,0", "mz,0", "2", "e1"}
 #: Constants of the published formulas the design part writes out, by formula (``const:<formula>``); each
 #: set lists the numbers printed in the formula as the source gives it.
 CONSTANTS = {
@@ -51,6 +54,18 @@ CONSTANTS = {
     # Rankine-Gordon: sigma = fc / (1 + a (L/r)^2), a written 1/n (common practice)
     "Rankine-Gordon": {"1"},
 }
+# The constants the written-out formulas of the member checks with bending print, with their sources beside them
+# (tests/test_bending_checks.py, BENDING_CONSTANTS).
+def _with_bending(constants: dict) -> dict:
+    from tests.test_bending_checks import BENDING_CONSTANTS
+
+    out = {k: set(v) for k, v in constants.items()}
+    for ref, consts in BENDING_CONSTANTS.items():
+        out.setdefault(ref, set()).update(consts)
+    return out
+
+
+CONSTANTS = _with_bending(CONSTANTS)
 SUP = str.maketrans("⁰¹²³⁴⁵⁶⁷⁸⁹⁻", "0123456789-")
 NUMBER = re.compile(r"^(-?\d+)(?:\.(\d+))?(?: × 10([⁻⁰¹²³⁴⁵⁶⁷⁸⁹]+))?$")
 

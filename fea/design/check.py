@@ -22,6 +22,7 @@ from dataclasses import dataclass, field
 from types import MappingProxyType
 from typing import Any, Mapping, Sequence
 
+from fea.design.bending_result import BendingOptions, BendingResult
 from fea.design.standards import PASSES, UTILISATION, MemberData
 from fea.design.standards import STANDARDS as RECORDS
 from fea.design.sway import BUCKLES, SwayClass
@@ -74,6 +75,8 @@ class DesignSpec:
     load_factor : multiplies every case load to give the design forces [-]
     angle_load : how the load reaches a single angle: "concentric" (at its centroid, e.g. through both legs or
         a cap plate), "one leg" (through one leg), or "" when not said (see :data:`ANGLE_LOADS`)
+    bending : the options of the member checks with bending (interaction factors, chi_LT, bow, curve_LT,
+        section class; :class:`fea.design.bending_result.BendingOptions`)
     """
 
     standard: str
@@ -81,6 +84,7 @@ class DesignSpec:
     overrides: Mapping[int, Mapping[str, Any]] = field(default_factory=dict)
     load_factor: float = 1.0
     angle_load: str = ""
+    bending: BendingOptions = field(default_factory=BendingOptions)
 
     def __post_init__(self) -> None:
         if self.standard not in PARAMETERS:
@@ -196,6 +200,8 @@ class DesignResult:
     sway : per plane, the sway sensitivity (:func:`fea.design.sway.classify_sway`); empty when not classified
     unchecked : ways the member may fail that these checks do not cover (plain sentences, each naming the
         segment and the missing check); any makes a passing member "not verified"
+    bending : the member checks with bending (None when the case needs none: no bending action and no
+        sway-sensitive plane; also for the axial-only candidates of sizing)
     """
 
     standard: str
@@ -204,6 +210,7 @@ class DesignResult:
     notes: tuple[str, ...] = ()
     sway: tuple[SwayClass, ...] = ()
     unchecked: tuple[str, ...] = ()
+    bending: BendingResult | None = None
 
     @property
     def governing(self) -> DesignCheck:
@@ -220,15 +227,33 @@ class DesignResult:
         return all(c.passed for c in self.checks)
 
     @property
+    def bending_passed(self) -> bool:
+        """Whether every member check with bending that was made passes (True when none was made)."""
+        return self.bending is None or self.bending.passed
+
+    @property
+    def overall(self) -> tuple[str, float]:
+        """The largest utilisation of every check, axial and with bending, and what gives it in words."""
+        g = self.governing
+        where = ("in tension" if g.kind == "tension" else "in flexural-torsional buckling" if g.axis == TORSIONAL_AXIS
+                 else f"about the {g.axis} axis")
+        best = (f"segment {g.segment + 1} ({g.name}) {where}", g.utilisation)
+        b = self.bending.governing if self.bending is not None else None
+        if b is not None and b.utilisation > best[1]:
+            best = (f"segment {b.segment + 1} ({b.name}) with bending, {b.title}: {b.governing}", b.utilisation)
+        return best
+
+    @property
     def verdict(self) -> str:
-        """"passes", "fails" (a check fails, or a plane buckles below the design loads) or "not verified"
-        (every check passes but a plane's sway sensitivity says the axial check alone is not enough, or the
-        member may fail in a way the checks do not cover: :attr:`unchecked`)."""
+        """"passes", "fails" (a check fails, a member check with bending fails, or a plane buckles below the
+        design loads) or "not verified" (every check passes but a plane's sway sensitivity says the axial check
+        alone is not enough and no member check with its second-order moments covers it, or the member may fail
+        in a way the checks do not cover: :attr:`unchecked`)."""
         # a plane buckling below the design loads, or below the case loads (alpha_cr x load factor < 1), fails
-        if not self.passed or any(s.classification == BUCKLES or s.alpha_cr * self.load_factor < 1.0
-                                  for s in self.sway):
+        if not self.passed or not self.bending_passed or any(
+                s.classification == BUCKLES or s.alpha_cr * self.load_factor < 1.0 for s in self.sway):
             return "fails"
-        if any(not s.axial_check_enough for s in self.sway) or self.unchecked:
+        if any(not s.axial_check_enough and not s.covered_by for s in self.sway) or self.unchecked:
             return "not verified"
         return "passes"
 

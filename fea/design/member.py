@@ -8,14 +8,14 @@ module turns the case and its buckling results into the inputs of
 
 from __future__ import annotations
 
-import math
 from dataclasses import replace
 from typing import TYPE_CHECKING, Sequence
 
 from ..errors import CaseError
-from ..model import STATION_TOL, Column
+from ..model import Column
 from ..model.case import Case
 from ..results import BucklingResult
+from .beam_column import bending_actions, bending_of_case
 from .check import (
     AxisBuckling,
     DesignCheck,
@@ -26,6 +26,7 @@ from .check import (
     design_check,
     torsional_check,
 )
+from .forces import segment_forces, sways
 from .standards import STANDARDS
 from .sway import classify_sway
 
@@ -58,36 +59,10 @@ def member_data(case: Case, spec: DesignSpec, areas: Sequence[float | None] | No
     return tuple(out)
 
 
-def segment_forces(column: Column) -> tuple[SegmentForces, ...]:
-    """Largest compression and largest tension of each segment at load factor 1 [N].
-
-    The axial force is evaluated just above and just below both segment ends
-    and every load station inside the segment, where it is extreme (it is
-    piecewise linear in height).
-    """
-    H = column.height
-    tol = 10 * STATION_TOL * H  # clear of the model's own station tolerance, so a load at a station counts below it
-    inner = [p.at for p in column.point_loads] + [x for d in column.distributed_loads for x in (d.bottom, d.top)]
-    out = []
-    for a, b in column.segment_bounds():
-        xs = [a + tol, b - tol] + [x + s * tol for x in inner if a < x < b for s in (-1.0, 1.0)]
-        N = column.axial_force(xs)
-        out.append(SegmentForces(compression=max(float(N.max()), 0.0), tension=max(float(-N.min()), 0.0)))
-    return tuple(out)
-
-
 def axis_buckling(r: BucklingResult) -> tuple[AxisBuckling, ...]:
     """Per-segment buckling figures of one plane, as the design check takes them."""
     return tuple(AxisBuckling(N_cr=s.critical_axial_force, effective_length_factor=s.effective_length_factor,
                               meaningful=s.meaningful, note=s.note) for s in r.segments)
-
-
-def sways(column: Column) -> bool:
-    """Whether ``column`` may sway: not held rigidly against translation at both its base and top, or it
-    carries leaning loads (see :func:`fea.design.sway.classify_sway`)."""
-    H = column.height
-    held = {round(r.at / H, 9) for r in column.restraints if math.isinf(r.lateral)}
-    return bool(column.leaning_loads) or not {0.0, 1.0} <= held
 
 
 def design_of_case(case: Case, results: Sequence[BucklingResult], spec: DesignSpec | None = None,
@@ -129,8 +104,26 @@ def design_of_case(case: Case, results: Sequence[BucklingResult], spec: DesignSp
             f"segment {i + 1} ('{case.segments[i].name}'): a single angle loaded at its centroid "
             f"(angle_load = \"concentric\"): {ANGLE_ROUTE}" for i in angles))
     unchecked = (unchecked_modes(case, forces, covered) + ((() if checked else offset_restraints(case)))
-                 + single_angles(case, spec, forces) + bending_unchecked(case))
-    return replace(result, sway=sway, unchecked=unchecked)
+                 + single_angles(case, spec, forces))
+    if areas is not None or columns is not None:  # sizing candidates: axial checks only
+        return replace(result, sway=sway, unchecked=unchecked + bending_unchecked(case))
+    bending = bending_of_case(case, spec, results, sway, members, forces, spatial)
+    if bending is None:
+        return replace(result, sway=sway, unchecked=unchecked)
+    covered_by = COVERED_BY.get(spec.standard, "")
+    sway = tuple(replace(w, covered_by=covered_by,
+                         reason=w.reason.split("; missing:")[0] + f"; covered by {covered_by}")
+                 if w.axis in bending.planes else w for w in sway)
+    return replace(result, sway=sway, unchecked=unchecked + bending.unchecked, bending=bending)
+
+
+#: What covers the second-order effects of a sway-sensitive plane once the member checks with bending on
+#: second-order moments are made (fea.design.beam_column).
+COVERED_BY = {
+    "EN 1993-1-1": ("the member checks with bending: 6.3.3 on second-order sway moments and the second-order "
+                    "analysis with member imperfections (5.2.2(3) and (7))"),
+    "AISC 360": "the member check with bending on the moments of the direct analysis (Chapter C, H1.1)",
+}
 
 
 #: What the check of a single angle is, and what it leaves to the engineer (docs/design.md "Single angles").
@@ -164,24 +157,13 @@ def single_angles(case: Case, spec: DesignSpec, forces: Sequence[SegmentForces])
 
 def bending_unchecked(case: Case) -> tuple[str, ...]:
     """A column that carries bending moments (eccentric loads, lateral loads, applied moments) is not checked by
-    its axial force alone: the sentence saying so, or nothing when the case has no such actions."""
-    specs = [case.extras.get("lateral"), getattr(case.extras.get("imperfection"), "loads", None)]
-    what: dict[str, None] = {}
-    planes: dict[str, None] = {}
-    for spec in specs:
-        if spec is None:
-            continue
-        for label, items, nonzero in (
-                ("lateral point loads", spec.point, lambda a: a.force != 0),
-                ("lateral distributed loads", spec.distributed, lambda a: a.q_bottom != 0 or (a.q_top or 0) != 0),
-                ("moments from eccentric loads or applied moments", spec.moments, lambda a: a.moment != 0)):
-            for axis, action in items:
-                if nonzero(action):
-                    what.setdefault(label)
-                    planes.setdefault(axis or "both")
-    if not what:
+    its axial force alone: the sentence saying so for the axial-only checks of sizing candidates, or nothing
+    when the case has no such actions (the check of a case makes the member checks with bending instead:
+    :func:`fea.design.beam_column.bending_of_case`)."""
+    got = bending_actions(case)
+    if got is None:
         return ()
-    where = "both planes" if "both" in planes or len(planes) > 1 else f"the {next(iter(planes))}-axis plane"
+    what, where = got
     return (f"the column carries bending ({', '.join(what)}, {where}): its axial checks alone do not cover "
             "the member with bending (axial force and moment together)",)
 

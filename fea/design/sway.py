@@ -69,6 +69,8 @@ class SwayClass:
     axial_check_enough : whether the axial member check alone verifies the member
     reason : plain words: why, and what is missing
     source : the rule applied
+    covered_by : what covers the second-order effects the axial check leaves out ("" when nothing does): the
+        member check with bending on second-order moments (:mod:`fea.design.beam_column`)
     """
 
     axis: str
@@ -78,6 +80,7 @@ class SwayClass:
     axial_check_enough: bool
     reason: str
     source: str
+    covered_by: str = ""
 
 
 def amplification(alpha_cr: float) -> float:
@@ -110,13 +113,12 @@ def classify_sway(standard: str, axis: str, alpha_cr: float, sway: bool = True) 
                              "method applies", source)
         return SwayClass(axis, alpha_cr, amp, FIRST_ORDER, True,
                          f"alpha_cr = {alpha_cr:.3g} >= {first:g}: second-order effects may be neglected", source)
-    missing = ("a second-order analysis with imperfections (or the member check with the amplified bending "
-               "moments, which a later version adds)")
+    missing = ("a second-order analysis with imperfections and the member check with its bending moments (made "
+               "where the standard's check with bending is covered and the section is given by shape)")
     if alpha_cr >= amp_limit:
         return SwayClass(axis, alpha_cr, amp, AMPLIFIED, False,
                          f"alpha_cr = {alpha_cr:.3g} < {first:g} (amplification {amp:.3g}): second-order effects "
                          f"must be included; missing: {missing}", source)
     return SwayClass(axis, alpha_cr, amp, SECOND_ORDER, False,
                      f"alpha_cr = {alpha_cr:.3g} < {amp_limit:g} (amplification {amp:.3g}): a second-order "
-                     "analysis with imperfections is required; missing: that analysis and the member check with "
-                     "its bending moments", source)
+                     f"analysis with imperfections is required; missing: {missing}", source)

@@ -7,6 +7,7 @@ import math
 import re
 from typing import Any
 
+from ..design.bending_result import BOWS, INTERACTIONS, LT_CURVES, LTB_ROUTES, BendingOptions
 from ..design.check import ANGLE_LOADS, PARAMETERS, PER_AXIS, DesignSpec
 from ..design.curves import AS4100_ALPHA_B, BS5950_ROBERTSON, EN1993_IMPERFECTION
 from ..errors import CaseError, ModelError
@@ -83,6 +84,33 @@ def _allowed_keys(standard: str) -> set[str]:
     return keys
 
 
+#: The keys of the member checks with bending, by standard: case-wide keys, and keys a [[design.segment]]
+#: table may also give (docs/design.md "Members with bending").
+BENDING_KEYS: dict[str, tuple[tuple[str, ...], tuple[str, ...]]] = {
+    "EN 1993-1-1": (("interaction", "ltb", "bow", "curve_LT", "section_class"), ("curve_LT", "section_class")),
+    "AISC 360": (("section_class",), ("section_class",)),
+}
+_CHOICES = {"interaction": (INTERACTIONS, "EN 1993-1-1 interaction factors: Annex B or Annex A"),
+            "ltb": (LTB_ROUTES, "EN 1993-1-1 6.3.2.2 (general) or 6.3.2.3 (rolled)"),
+            "bow": (BOWS, "the member imperfection of the second-order route: Table 5.1 or 5.3.2(11)"),
+            "curve_LT": (LT_CURVES, "a lateral-torsional buckling curve of EN 1993-1-1 Table 6.3")}
+
+
+def _bending_value(name: str, value: Any, path: str) -> Any:
+    """One key of the member checks with bending, checked."""
+    if name == "section_class":
+        if isinstance(value, bool) or not isinstance(value, int) or value not in (1, 2, 3):
+            raise CaseError(path, f"{value!r}: expected 1, 2 or 3 (a class 4 section is not covered: local "
+                                  "buckling)")
+        return value
+    allowed, what = _CHOICES[name]
+    if isinstance(value, str) and name == "interaction":
+        value = value.upper()
+    if value not in allowed:
+        raise CaseError(path, f"{value!r}: expected one of {', '.join(repr(a) for a in allowed)} ({what})")
+    return value
+
+
 def _segment_index(ref: Any, path: str, doc: dict) -> int:
     segs = doc.get("segment", [])
     segs = [segs] if isinstance(segs, dict) else segs if isinstance(segs, list) else []
@@ -107,7 +135,10 @@ def parse_design(table: dict, doc: dict) -> DesignSpec:
         raise CaseError("design.standard", f"{standard!r} is not a known standard{hint}; expected one of "
                                            f"{', '.join(repr(s) for s in PARAMETERS)}")
     allowed = _allowed_keys(standard)
-    check_keys(table, "design", allowed | {"standard", "load_factor", "segment", "angle_load"})
+    bend_keys, bend_segment = BENDING_KEYS.get(standard, ((), ()))
+    check_keys(table, "design", allowed | {"standard", "load_factor", "segment", "angle_load"} | set(bend_keys))
+    bending = {k: _bending_value(k, table[k], f"design.{k}") for k in bend_keys if k in table}
+    bend_overrides: dict[int, dict[str, Any]] = {}
     params: dict[str, Any] = {k: v for k, v in PARAMETERS[standard].items() if v is not None}
     for k, v in table.items():
         if k in allowed:
@@ -128,11 +159,15 @@ def parse_design(table: dict, doc: dict) -> DesignSpec:
         p = f"design.segment[{j + 1}]"
         if not isinstance(t, dict):
             raise CaseError(p, f"expected a table, got {t!r}")
-        check_keys(t, p, allowed | {"segment"})
+        check_keys(t, p, allowed | {"segment"} | set(bend_segment))
         if "segment" not in t:
             raise CaseError(f"{p}.segment", "missing: give the segment's number (from 1) or its name")
         idx = _segment_index(t["segment"], f"{p}.segment", doc)
-        overrides[idx] = {k: _param(standard, k, v, f"{p}.{k}") for k, v in t.items() if k != "segment"}
+        overrides[idx] = {k: _param(standard, k, v, f"{p}.{k}") for k, v in t.items()
+                          if k != "segment" and k not in bend_segment}
+        own = {k: _bending_value(k, t[k], f"{p}.{k}") for k in bend_segment if k in t}
+        if own:
+            bend_overrides[idx] = own
     # required parameters, common or in every override
     for name, default in PARAMETERS[standard].items():
         if default is not None or name in ("crushing_stress", "sigma_allow"):
@@ -149,7 +184,7 @@ def parse_design(table: dict, doc: dict) -> DesignSpec:
                                                     "allowable compressive stress, e.g. sigma_allow = '7.5 MPa'")
     try:
         return DesignSpec(standard=standard, parameters=params, overrides=overrides, load_factor=load_factor,
-                          angle_load=angle_load)
+                          angle_load=angle_load, bending=BendingOptions(**bending, segments=bend_overrides))
     except ModelError as exc:  # pragma: no cover - checked above
         raise CaseError(exc.field, exc.message) from None
 

@@ -120,8 +120,9 @@ def sizing_lines(s: SizingResult, title: str, d: DisplayUnits, top: int = 5) -> 
             # the axial checks pass, but the sway sensitivity asks for more than they check
             low = min(ch.design.sway, key=lambda w: w.alpha_cr)
             out.append(f"  NOT VERIFIED with it: alpha_cr {low.alpha_cr:.3g} about the {low.axis} axis "
-                       f"({low.classification}); the axial checks alone do not verify the member: a second-order "
-                       "analysis with imperfections, or the member check with bending (not yet offered), is missing")
+                       f"({low.classification}); the axial checks alone do not verify the member: run `stanchion "
+                       "check` with this section, which makes the member check with bending on second-order "
+                       "moments where the standard covers it")
     out.append("")
     out.append(f"CAUTION: {DESIGN_CAUTION}")
     return out

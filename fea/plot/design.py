@@ -17,7 +17,7 @@ from ..design.sizing import SizingResult
 
 __all__ = ["plot_utilisation", "plot_candidates"]
 
-_PASS, _FAIL, _GOV = "#4477aa", "#cc3311", "#222222"
+_PASS, _FAIL, _GOV, _BEND = "#4477aa", "#cc3311", "#222222", "#66aacc"
 
 
 def _axes(ax: Axes | None, size: tuple[float, float]) -> Axes:
@@ -27,11 +27,22 @@ def _axes(ax: Axes | None, size: tuple[float, float]) -> Axes:
     return fig.add_subplot()
 
 
+def _short(route) -> str:
+    """A short name of a route of the member checks with bending, for a bar label."""
+    if route.key == "second-order":
+        plane = "major" if "major" in route.title else "minor"
+        return f"2nd order, imperfections {plane}"
+    return {"member": "6.3.3", "direct-analysis": "H1.1, direct analysis"}.get(route.key, route.key)
+
+
 def plot_utilisation(result: DesignResult, ax: Axes | None = None, title: str = "") -> Axes:
     """Bar chart of the utilisation of every check (segment and axis, or tension).
 
-    Bars above 1 are drawn in the failing colour; the governing check is
-    outlined; a dashed line marks utilisation 1.
+    Bars above 1 are drawn in the failing colour; the member checks with
+    bending (one bar per segment and route) in a lighter colour; the check
+    with the largest utilisation is outlined; a dashed line marks
+    utilisation 1; the title gives the verdict with bending, else whether
+    the axial checks pass.
 
     Parameters
     ----------
@@ -43,26 +54,38 @@ def plot_utilisation(result: DesignResult, ax: Axes | None = None, title: str = 
     -------
     matplotlib.axes.Axes
     """
-    ax = _axes(ax, (6.5, 0.45 * len(result.checks) + 1.6))
+    routes = list(result.bending.routes) if result.bending is not None else []
+    ax = _axes(ax, (6.5, 0.45 * (len(result.checks) + len(routes)) + 1.6))
     checks = result.checks
-    y = np.arange(len(checks))[::-1]
-    u = np.array([c.utilisation for c in checks])
-    gov = result.governing
-    colours = [_FAIL if c.utilisation > 1 else _PASS for c in checks]
-    bars = ax.barh(y, u, color=colours, height=0.6)
-    for b, c in zip(bars, checks):
-        if c is gov:
+    labels = [f"{c.segment + 1} {c.name} - {'tension' if c.kind == 'tension' else c.axis}" for c in checks]
+    labels += [f"{r.segment + 1} {r.name} - bending: {_short(r)}" for r in routes]
+    u = np.array([c.utilisation for c in checks] + [r.utilisation for r in routes], dtype=float)
+    shown = np.where(np.isfinite(u), u, 0.0)
+    top = float(shown.max()) if len(shown) else 1.0
+    bent = result.bending.governing if result.bending is not None else None
+    gov_index = checks.index(result.governing)
+    if bent is not None and bent.utilisation > result.governing.utilisation:
+        gov_index = len(checks) + routes.index(bent)
+    y = np.arange(len(u))[::-1]
+    colours = [_FAIL if v > 1 else (_BEND if k >= len(checks) else _PASS) for k, v in enumerate(u)]
+    bars = ax.barh(y, np.where(np.isfinite(u), u, 1.15 * max(top, 1.0)), color=colours, height=0.6)
+    for k, (b, v) in enumerate(zip(bars, u)):
+        if k == gov_index:
             b.set_edgecolor(_GOV)
             b.set_linewidth(1.8)
-        ax.text(b.get_width(), b.get_y() + b.get_height() / 2, f" {c.utilisation:.2f}", va="center", fontsize=8)
-    labels = [f"{c.segment + 1} {c.name} - {'tension' if c.kind == 'tension' else c.axis}" for c in checks]
+        ax.text(b.get_width(), b.get_y() + b.get_height() / 2, f" {v:.2f}" if math.isfinite(v) else " no equilibrium",
+                va="center", fontsize=8)
     ax.set_yticks(y, labels, fontsize=8)
     ax.axvline(1.0, color=_GOV, linestyle="--", linewidth=1)
-    ax.set_xlim(0, max(1.15, float(u.max()) * 1.15))
-    ax.set_xlabel("utilisation N_Ed / N_Rd [-]")
-    state = "passes" if result.passed else "fails"
-    ax.set_title(f"{title + ': ' if title else ''}{result.standard}, {state} (max {gov.utilisation:.2f})",
-                 fontsize=9)
+    ax.set_xlim(0, max(1.15, top * 1.15))
+    ax.set_xlabel("utilisation N_Ed / N_Rd [-]" if not routes else "utilisation [-]")
+    if routes or result.bending is not None:
+        state = result.verdict  # with bending the verdict, not the axial checks alone
+    else:
+        state = "passes" if result.passed else "fails"
+    finite = u[np.isfinite(u)]
+    peak = f"{float(finite.max()):.2f}" if len(finite) == len(u) else "inf"
+    ax.set_title(f"{title + ': ' if title else ''}{result.standard}, {state} (max {peak})", fontsize=9)
     return ax
 
 

@@ -19,8 +19,19 @@ def design_part_blocks(result: DesignResult, u: DisplayUnits) -> list:
 
 
 def design_figures(result: DesignResult, u: DisplayUnits) -> list:
-    """(figure, caption) of the utilisation chart."""
+    """(figure, caption) of the utilisation chart, and of the moments of the member checks with bending."""
     from ..plot.design import plot_utilisation
 
     ax = plot_utilisation(result)
-    return [(ax.figure, "Utilisation of every check; the dashed line marks a utilisation of one.")]
+    what = "every check, axial and with bending (one bar per segment and route)" if result.bending is not None \
+        else "every check"
+    out = [(ax.figure, f"Utilisation of {what}; the dashed line marks a utilisation of one.")]
+    if result.bending is not None and result.bending.actions:
+        from ..io.design_output import moment_unit
+        from ..plot.moments import plot_moments
+
+        fig = plot_moments(result.bending, length_unit=(u.length, u.length_si), moment_unit=moment_unit(u))
+        out.append((fig, "Bending moments of the member checks with bending along the height, each plane: the "
+                         "first-order diagram beside the second-order one, the largest value of each marked with "
+                         "its height."))
+    return out

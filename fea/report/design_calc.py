@@ -93,21 +93,31 @@ def design_blocks(part: dict, u) -> list:
     gov = _governing_index(part)
     g = part.get("governing") or {}
     blocks: list = []
+    bending = part.get("bending")
+    bent = (bending or {}).get("max_utilisation")
+    if bent is not None and bent > (part.get("max_utilisation") or 0.0):
+        gov = None  # a member check with bending governs: it is marked in its own section
+    made = "every axial check" if not (bending and bending.get("routes")) else \
+        "every check made (axial and with bending)"
     verdict = "every check passes" if part.get("passed") else "at least one check FAILS"
     if part.get("verdict") == "not verified":
-        verdict = "every axial check passes, but the member is NOT VERIFIED (see the sway sensitivity below)"
+        verdict = f"{made} passes, but the member is NOT VERIFIED (see the sway sensitivity below)"
         if part.get("unchecked"):
-            verdict = "every axial check passes, but the member is NOT VERIFIED (see the failure modes not covered)"
+            verdict = f"{made} passes, but the member is NOT VERIFIED (see the failure modes not covered)"
     elif part.get("verdict") == "fails" and part.get("passed"):
-        verdict = "the column buckles elastically below its loads: the design FAILS"
+        verdict = ("a member check with bending FAILS" if bending and not bending.get("passed") else
+                   "the column buckles elastically below its loads: the design FAILS")
+    elif part.get("verdict") == "passes" and bending and bending.get("routes"):
+        verdict = "every check passes, axial and with bending"
     where: tuple = ()
     if g:
-        axis = "in tension" if g.get("kind") == "tension" else AXIS_WORDS.get(g.get("axis"), g.get("axis", ""))
+        axis = "in tension" if g.get("kind") == "tension" else AXIS_WORDS.get(str(g.get("axis")), g.get("axis", ""))
         where = (" (segment ", Q(g["segment"], "json:design/governing/segment", "", 6), ", ",
                  T(g["name"], "json:design/governing/name"), ", ", axis, ")")
     std = part.get("standard", "")
     blocks.append(Para(("Checked by ", *(("the ",) if std in CLASSICAL else ()), T(std, "json:design/standard"),
                         CLASSICAL.get(std, ""), ": ", verdict,
+                        "; the largest utilisation of the axial checks is " if bending else
                         "; the largest utilisation is ",
                         q(part.get("max_utilisation"), "json:design/max_utilisation", "", 3), *where, ".")))
     if part.get("unchecked"):
@@ -150,6 +160,11 @@ def design_blocks(part: dict, u) -> list:
         if c.get("note"):
             notes.append(("Note: ", T(c["note"], k.src("note")), "."))
         blocks.append(Calc(_title(k), tuple(lines), tuple(notes), highlight=n == gov))
+
+    if bending:
+        from .design_bending import bending_blocks
+
+        blocks.extend(bending_blocks(bending, u))
 
     notes = part.get("notes") or []
     if notes:

@@ -112,7 +112,7 @@ def sym(base: str, sub: str | T | None = None) -> tuple:
 
 def with_unit(qty: Q) -> tuple:
     """A quantity with its unit: ``2026 kN``."""
-    return (qty, "\u2009" + unit_label(qty.unit)) if qty.unit else (qty,)
+    return (qty, "\u2009" + unit_label(qty.unit).replace("^6", "⁶")) if qty.unit else (qty,)
 
 
 @dataclass(frozen=True)

@@ -86,7 +86,7 @@ def brief_blocks(res: CaseResults, parts: list[Part]) -> list:
     if design is not None and design.sway:
         brief.append(Para(("Design check (", T(design.standard, "json:design/standard"), "): verdict ",
                            T(design.verdict, "json:design/verdict"), ". ",
-                           "" if design.unchecked and all(w.axial_check_enough for w in design.sway)
+                           "" if design.unchecked and all(w.axial_check_enough or w.covered_by for w in design.sway)
                            else _MISSING.get(design.verdict, ""))))
         brief.extend(Para(("Not covered by the checks: ", T(u, f"json:design/unchecked/{i}"), "."))
                      for i, u in enumerate(design.unchecked))
@@ -101,8 +101,9 @@ def brief_blocks(res: CaseResults, parts: list[Part]) -> list:
 
 
 #: What a verdict other than "passes" lacks, in plain words (no numbers: the brief traces every number).
-_MISSING = {"not verified": "Missing: a second-order analysis with imperfections, or the member check with bending "
-                            "(not yet offered); the axial checks alone do not verify this member.",
+_MISSING = {"not verified": "Missing: a second-order analysis with imperfections and the member check with its "
+                            "bending moments, which could not be made for this member (see the design part); the "
+                            "axial checks alone do not verify it.",
             "fails": "See the design part and the warnings."}
 
 

@@ -266,14 +266,11 @@ def run_spatial(case: Case, results: Sequence[BucklingResult], inputs: SpatialIn
 
 
 def _major_actions(case: Case):
-    """The major-axis lateral actions of ``case`` (eccentricity moments, lateral loads, applied moments)."""
-    from ..model.imperfection import LateralSpec
+    """The major-axis lateral actions of ``case`` (eccentricity moments, lateral loads, applied moments), as the
+    imperfect-column analysis takes them (``[lateral]`` already holds the [[load]] actions)."""
+    from .imperfect_case import imperfection_spec
 
-    spec = LateralSpec()
-    for s in (case.extras.get("lateral"), getattr(case.extras.get("imperfection"), "loads", None)):
-        if s is not None:
-            spec = spec.merged(s)
-    return spec.for_axis("major")
+    return imperfection_spec(case).loads.for_axis("major")
 
 
 def _first_order_moment(case: Case, actions) -> tuple[np.ndarray, np.ndarray, Any]:
