@@ -39,8 +39,8 @@ from .report.parts import DESIGN_PART, FIXITY_PART, IMPERFECT_PART, SPATIAL_PART
 from .results import BucklingResult, CaseResults
 from .solve.eigen import buckling
 
-__all__ = ["Analysis", "ANALYSES", "CASE_TABLES", "REPORT_PARTS", "load_case", "parse_case", "run_case", "result_json",
-           "summary", "identical_planes"]
+__all__ = ["Analysis", "ANALYSES", "CASE_TABLES", "REPORT_PARTS", "load_case", "parse_case", "run_case", "run_analyses",
+           "rebuild_case", "result_json", "summary", "identical_planes"]
 
 
 @dataclass(frozen=True)
@@ -167,8 +167,14 @@ def run_case(case: Case, n_modes: int | None = None, skip: tuple[str, ...] = ())
         results = (first, replace(first, axis=same[1], message=f"{first.message}; {_identical_note(same)}"))
     else:
         results = tuple(buckling(col, n_modes=modes, tol=case.tolerance, axis=axis) for axis, col in case.planes)
+    return run_analyses(case, results, skip)
+
+
+def run_analyses(case: Case, results: tuple[BucklingResult, ...], skip: tuple[str, ...] = ()) -> CaseResults:
+    """Every analysis of :data:`ANALYSES` not named in ``skip``, in order, on given buckling ``results``
+    (one per plane): what :func:`run_case` does after its buckling solutions (also used by the explorer)."""
     gov = min(results, key=lambda r: r.load_factor).axis
-    extras = {}
+    extras: dict[str, Any] = {}
     for analysis in ANALYSES:
         if analysis.name in skip:
             continue
@@ -176,6 +182,14 @@ def run_case(case: Case, n_modes: int | None = None, skip: tuple[str, ...] = ())
         if out is not None:
             extras[analysis.name] = out
     return CaseResults(case=case, buckling=results, governing_axis=gov, extras=extras)
+
+
+def rebuild_case(document: dict) -> Case:
+    """A case document (plain data, e.g. a parsed case's ``document`` with changed values) -> the parsed case,
+    with every table of :data:`CASE_TABLES` (module-level, so that worker processes can receive it)."""
+    from .io.case import parse_document
+
+    return parse_document(document, tables=CASE_TABLES)
 
 
 def analysis(name: str) -> Analysis:

@@ -33,10 +33,9 @@ def rebuild_case(document: dict) -> Case:
 
     Module-level so that the worker processes of a sweep can receive it.
     """
-    from ..io.case import parse_document
-    from ..pipeline import CASE_TABLES
+    from ..pipeline import rebuild_case as rebuild
 
-    return parse_document(document, tables=CASE_TABLES)
+    return rebuild(document)
 
 
 def study_from_text(text: str, source: str = "") -> StudyCase:

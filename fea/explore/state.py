@@ -40,7 +40,7 @@ from ..errors import CaseError, FeaError
 from ..io.case import parse_document
 from ..io.limits import MAX_CASE_BYTES, read_limited
 from ..model.case import Case
-from ..pipeline import ANALYSES, CASE_TABLES, parse_case, run_case
+from ..pipeline import ANALYSES, CASE_TABLES, parse_case, rebuild_case, run_analyses, run_case
 from ..results import BucklingResult, CaseResults
 from ..study.paths import parse_key
 from ..study.target import StudyCase
@@ -59,9 +59,8 @@ CACHE = 24
 BLOCK = 50
 
 
-def rebuild(document: dict) -> Case:
-    """A case document (plain data) -> the parsed case, with every table of the pipeline."""
-    return parse_document(document, tables=CASE_TABLES)
+#: A case document (plain data) -> the parsed case, with every table of the pipeline.
+rebuild = rebuild_case
 
 
 @dataclass
@@ -357,21 +356,7 @@ class Explorer:
                 results.append(plane.result(case.column(r.axis), k, lam))
             except NotApplicable:
                 return None
-        return quick_analyses(case, tuple(results), skip=SLOW + (("design",) if self.uses_spatial else ()))
-
-
-def quick_analyses(case: Case, buckling: tuple[BucklingResult, ...], skip: tuple[str, ...]) -> CaseResults:
-    """The analyses of :data:`fea.pipeline.ANALYSES` not in ``skip``, on given buckling results (as
-    :func:`fea.pipeline.run_case` runs them after its own buckling solutions)."""
-    gov = min(buckling, key=lambda r: r.load_factor).axis
-    extras: dict[str, Any] = {}
-    for analysis in ANALYSES:
-        if analysis.name in skip:
-            continue
-        out = analysis.run(case, buckling, extras) if analysis.uses_earlier else analysis.run(case, buckling)
-        if out is not None:
-            extras[analysis.name] = out
-    return CaseResults(case=case, buckling=buckling, governing_axis=gov, extras=extras)
+        return run_analyses(case, tuple(results), skip=SLOW + (("design",) if self.uses_spatial else ()))
 
 
 def _same(a: float, b: float) -> bool:
