@@ -9,29 +9,26 @@ route of :mod:`fea.design.bending_aisc`).  It is taken, in this order:
    under the case's own first-order major-axis moments, axial loads left out), where its diagram is the design
    actions' diagram of the lateral actions for that segment (the same moments, divided by the load factor);
 3. otherwise from the same thin-walled member under the design's first-order major-axis diagram (the lateral
-   actions with the imperfection forces), by :func:`diagram_critical_moment`: the case has no major-axis moment
-   of its own in the segment (its moments come from the sway imperfection), or the two diagrams differ;
+   actions with the imperfection forces), by :func:`fea.solve.spatial_case.diagram_critical_moment`: the case has
+   no major-axis moment of its own in the segment (its moments come from the sway imperfection), or the two
+   diagrams differ;
 4. else it is not available, and the segment is "not verified" with the reason.
 """
 
 from __future__ import annotations
 
 import math
-from dataclasses import dataclass, replace
+from dataclasses import dataclass
 from typing import TYPE_CHECKING, Any, Sequence
 
-import numpy as np
-
 from ..errors import ModelError, SolverError
-from ..model import STATION_TOL
-from ..model.column import merge_stations
+from ..solve.spatial_case import diagram_critical_moment
 
 if TYPE_CHECKING:
     from ..solve.spatial_case import SpatialCase
-    from ..solve.spatial_model import SpatialColumn
     from .actions import MomentDiagram
 
-__all__ = ["NOT_SUSCEPTIBLE", "SegmentMcr", "diagram_critical_moment", "segment_critical_moments"]
+__all__ = ["NOT_SUSCEPTIBLE", "SegmentMcr", "segment_critical_moments"]
 
 #: Section kinds that do not buckle laterally-torsionally (closed or round): M_cr infinite.
 NOT_SUSCEPTIBLE = {"rectangular_hollow": "a rectangular hollow section", "circular_hollow": "a circular hollow section",
@@ -49,54 +46,6 @@ class SegmentMcr:
     M_cr: float
     source: str
     missing: str = ""
-
-
-def _moment_at(ends: np.ndarray, M: np.ndarray, x: float, above: bool, tol: float) -> float:
-    """The moment of a diagram of element ends (bottom, top of each element) just above or below ``x``."""
-    n = ends.size // 2
-    lo, hi = ends[0::2], ends[1::2]
-    e = int(np.searchsorted(lo, x + tol, side="right") - 1) if above else int(np.searchsorted(hi, x - tol))
-    e = min(max(e, 0), n - 1)
-    a, b = lo[e], hi[e]
-    t = 0.0 if b <= a else min(max((x - a) / (b - a), 0.0), 1.0)
-    return float(M[2 * e] + t * (M[2 * e + 1] - M[2 * e]))
-
-
-def diagram_critical_moment(column: "SpatialColumn", ends: np.ndarray, M: np.ndarray, cuts: Sequence[float] = (),
-                            curved: Sequence[tuple[float, float]] = (), chords: int = 16, tol: float = 1e-6
-                            ) -> tuple[float, list[tuple[float, float]], Any]:
-    """The lowest lateral-torsional load factor of the thin-walled member ``column`` under a major-axis moment
-    diagram given at element ends (``ends``, ``M``), linear between the member's stations, the heights ``cuts``
-    (where the diagram jumps or kinks) and, inside the ranges ``curved`` (distributed lateral loads), ``chords``
-    pieces per interval (the parabola followed by chords, as the thin-walled analysis does).
-
-    Returns the load factor, per segment ``(largest |M|, its M_cr = load factor x largest |M|)`` and the solver's
-    result (``converged``, ``message``).
-    """
-    from ..solve.spatial import critical_moment
-
-    H = column.length
-    stol = STATION_TOL * H
-    xs = set(float(x) for x in column.stations()) | {float(c) for c in cuts if 0.0 <= c <= H}
-    base = sorted(xs)
-    for a, b in zip(base[:-1], base[1:]):
-        if any(lo - stol <= a and b <= hi + stol for lo, hi in curved):
-            xs |= {a + (b - a) * k / chords for k in range(1, chords)}
-    stations = merge_stations(sorted(xs), H)
-    pieces, owner = [], []
-    for a, b in zip(stations[:-1], stations[1:]):
-        k = column.segment_at(0.5 * (a + b))
-        pieces.append(replace(column.segments[k], length=b - a, M1=_moment_at(ends, M, a, True, stol),
-                              M2=_moment_at(ends, M, b, False, stol)))
-        owner.append(k)
-    member = replace(column, segments=tuple(pieces), loads=())
-    best = critical_moment(member, tol=tol)
-    lam = float(best.load_factor)
-    out = []
-    for k in range(len(column.segments)):
-        m = max((max(abs(p.M1), abs(p.M2)) for p, o in zip(pieces, owner) if o == k), default=0.0)
-        out.append((m, lam * m if m > 0 else math.inf))
-    return lam, out, best.result
 
 
 def segment_critical_moments(case: Any, kinds: Sequence[str], major: Sequence[float], spatial: "SpatialCase | None",
@@ -163,8 +112,9 @@ def segment_critical_moments(case: Any, kinds: Sequence[str], major: Sequence[fl
                                                   "loads reach the critical load)")
             return out  # type: ignore[return-value]
         try:
-            lam, per, res = diagram_critical_moment(spatial.column, design.x, design.M, cuts, curved,
-                                                    tol=case.tolerance)
+            d = diagram_critical_moment(spatial.column, design.x, design.M, cuts, curved, tol=case.tolerance)
+            lam, res = d.load_factor, d.result
+            per = [(m, mcr) for m, _, mcr in d.segments]
         except (ModelError, SolverError) as exc:
             for i in rest:
                 out[i] = SegmentMcr(math.nan, "", f"M_cr is not available: the thin-walled analysis under the design "

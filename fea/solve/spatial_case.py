@@ -43,7 +43,8 @@ if TYPE_CHECKING:
     from .spatial import SpatialResult
 
 __all__ = ["DEFAULT_NU", "RestraintTorsion", "SpatialInputs", "SpatialCase", "SegmentMoment", "CaseCriticalMoment",
-           "spatial_column", "run_spatial", "case_critical_moment", "NOT_COVERED", "CHORDS"]
+           "spatial_column", "run_spatial", "case_critical_moment", "diagram_critical_moment", "DiagramMoment",
+           "moment_at", "NOT_COVERED", "CHORDS"]
 
 #: Poisson's ratio when the case gives neither G nor nu (common practice for steel): G = E / (2 (1 + nu)).
 DEFAULT_NU = 0.3
@@ -285,72 +286,98 @@ def _first_order_moment(case: Case, actions) -> tuple[np.ndarray, np.ndarray, An
     return np.asarray(r.end_heights), np.asarray(r.first_order_moment[0]), r
 
 
+def moment_at(ends: np.ndarray, M: np.ndarray, x: float, above: bool, tol: float) -> float:
+    """The moment of a diagram given at element ends (bottom, top of each element: ``ends``, ``M``) just above
+    (or just below) height ``x``, linear inside an element."""
+    n = ends.size // 2
+    lo, hi = ends[0::2], ends[1::2]
+    e = int(np.searchsorted(lo, x + tol, side="right") - 1) if above else int(np.searchsorted(hi, x - tol))
+    e = min(max(e, 0), n - 1)
+    a, b = lo[e], hi[e]
+    t = 0.0 if b <= a else min(max((x - a) / (b - a), 0.0), 1.0)
+    return float(M[2 * e] + t * (M[2 * e + 1] - M[2 * e]))
+
+
+@dataclass(frozen=True)
+class DiagramMoment:
+    """The lateral-torsional buckling of a thin-walled member under a major-axis moment diagram alone.
+
+    ``load_factor`` on the diagram; per segment ``(largest |M| [N m], its height [m], M_cr [N m])`` (M_cr inf
+    where the segment carries no moment); ``senses`` as :class:`CaseCriticalMoment`; ``result`` the solver's.
+    """
+
+    load_factor: float
+    segments: tuple[tuple[float, float, float], ...]
+    senses: str
+    result: Any
+
+
+def diagram_critical_moment(column: SpatialColumn, ends: np.ndarray, M: np.ndarray, cuts: Sequence[float] = (),
+                            curved: Sequence[tuple[float, float]] = (), chords: int = CHORDS, tol: float = 1e-6,
+                            both_senses: bool = True) -> DiagramMoment:
+    """The lowest lateral-torsional load factor of the thin-walled member ``column`` (its axial loads left out)
+    under a major-axis moment diagram given at element ends (``ends``, ``M``): linear between the member's
+    stations and the heights ``cuts`` (where the diagram jumps or kinks), and inside the ranges ``curved``
+    (distributed lateral loads) followed by ``chords`` chords per interval.  With ``both_senses`` a section not
+    symmetric about its major axis is also solved under the reversed diagram and the lower factor kept.
+    ``M_cr`` of a segment = the load factor x its largest moment.
+    """
+    from .spatial import critical_moment
+
+    H = column.length
+    stol = STATION_TOL * H
+    xs = {float(x) for x in column.stations()} | {float(c) for c in cuts if 0.0 <= c <= H}
+    base = sorted(xs)
+    for a, b in zip(base[:-1], base[1:]):
+        if any(lo - stol <= a and b <= hi + stol for lo, hi in curved):
+            xs |= {a + (b - a) * k / chords for k in range(1, chords)}
+    stations = merge_stations(sorted(xs), H)
+    pieces, owner = [], []
+    for a, b in zip(stations[:-1], stations[1:]):
+        k = column.segment_at(0.5 * (a + b))
+        pieces.append(replace(column.segments[k], length=b - a, M1=moment_at(ends, M, a, True, stol),
+                              M2=moment_at(ends, M, b, False, stol)))
+        owner.append(k)
+    member = replace(column, segments=tuple(pieces), loads=())
+    best = critical_moment(member, tol=tol)
+    senses = "as given"
+    if both_senses and any(s.beta_y != 0 or s.z0 != 0 for s in column.segments):
+        other = critical_moment(replace(member, segments=tuple(replace(p, M1=-p.M1, M2=-p.M2) for p in pieces)),
+                                tol=tol)
+        senses = "the lower of the two senses"
+        if other.load_factor < best.load_factor:
+            best = other
+    lam = float(best.load_factor)
+    segs = []
+    for k in range(len(column.segments)):
+        own = [(max(abs(p.M1), abs(p.M2)), a if abs(p.M1) >= abs(p.M2) else b)
+               for p, o, a, b in zip(pieces, owner, stations[:-1], stations[1:]) if o == k]
+        m, at = max(own) if own else (0.0, math.nan)
+        segs.append((float(m), float(at), lam * m if m > 0 else math.inf))
+    return DiagramMoment(lam, tuple(segs), senses, best.result)
+
+
 def case_critical_moment(case: Case, column: SpatialColumn) -> CaseCriticalMoment | None:
     """The elastic critical moment of ``case``'s member under its major-axis moment diagram (None when the
     major-axis plane carries no moment).
 
     The first-order moment diagram of the planar column (:func:`fea.solve.second_order.second_order` with the
-    axial loads left out) is given to the thin-walled member as linear moments between its stations, each
-    segment cut at every station where the diagram changes slope or jumps; under a distributed lateral load
-    each interval is cut into :data:`CHORDS` chords.  ``M_cr`` of a segment = the lowest load factor of the
-    member under the diagram x the segment's largest moment.
+    axial loads left out) is given to the thin-walled member (:func:`diagram_critical_moment`), cut at every
+    station and load; under a distributed lateral load each interval is cut into :data:`CHORDS` chords.
     """
-    from .spatial import critical_moment
-
     actions = _major_actions(case)
     if actions.empty:
         return None
     ends, M, _ = _first_order_moment(case, actions)
     if not np.any(np.abs(M) > 0):
         return None
-    H = column.length
-    tol = STATION_TOL * H
-    cuts = set(float(x) for x in column.stations())
-    cuts |= {float(a.at) for a in actions.point + actions.moments}
-    chords = 0
-    for d in actions.distributed:
-        cuts |= {float(d.bottom), float(d.top)}
-    base = sorted(cuts)
-    if actions.distributed:
-        chords = CHORDS
-        loaded = [(d.bottom, d.top) for d in actions.distributed]
-        for a, b in zip(base[:-1], base[1:]):
-            if any(lo - tol <= a and b <= hi + tol for lo, hi in loaded):
-                cuts |= {a + (b - a) * k / CHORDS for k in range(1, CHORDS)}
-    xs = merge_stations(sorted(cuts), H)
-
-    def moment(x: float, above: bool) -> float:
-        """The moment just above (or just below) ``x``, from the element ends of the planar mesh."""
-        n = ends.size // 2
-        lo, hi = ends[0::2], ends[1::2]
-        e = int(np.searchsorted(lo, x + tol, side="right") - 1) if above else int(np.searchsorted(hi, x - tol))
-        e = min(max(e, 0), n - 1)
-        a, b = lo[e], hi[e]
-        t = 0.0 if b <= a else min(max((x - a) / (b - a), 0.0), 1.0)
-        return float(M[2 * e] + t * (M[2 * e + 1] - M[2 * e]))
-
-    pieces, owner = [], []
-    for a, b in zip(xs[:-1], xs[1:]):
-        k = column.segment_at(0.5 * (a + b))
-        pieces.append(replace(column.segments[k], length=b - a, M1=moment(a, True), M2=moment(b, False)))
-        owner.append(k)
-    member = replace(column, segments=tuple(pieces), loads=())
-    mono = any(s.beta_y != 0 or s.z0 != 0 for s in column.segments)
-    best = critical_moment(member, tol=case.tolerance)
-    senses = "as given"
-    if mono:
-        other = critical_moment(replace(member, segments=tuple(replace(p, M1=-p.M1, M2=-p.M2) for p in pieces)),
-                                tol=case.tolerance)
-        senses = "the lower of the two senses"
-        if other.load_factor < best.load_factor:
-            best = other
-    lam = best.load_factor
-    segs = []
-    for k, s in enumerate(column.segments):
-        own = [(max(abs(p.M1), abs(p.M2)), a if abs(p.M1) >= abs(p.M2) else b)
-               for p, o, a, b in zip(pieces, owner, xs[:-1], xs[1:]) if o == k]
-        m, at = max(own) if own else (0.0, math.nan)
-        segs.append(SegmentMoment(k, s.name, float(m), float(at), lam * m if m > 0 else math.inf))
-    res = best.result
-    return CaseCriticalMoment(load_factor=lam, kind=res.kinds[0], senses=senses, chords=chords,
-                              segments=tuple(segs), converged=bool(res.converged), message=res.message)
+    cuts = [float(a.at) for a in actions.point + actions.moments]
+    curved = [(float(d.bottom), float(d.top)) for d in actions.distributed]
+    cuts += [x for rng in curved for x in rng]
+    d = diagram_critical_moment(column, ends, M, cuts, curved, CHORDS, case.tolerance)
+    res = d.result
+    segs = tuple(SegmentMoment(k, s.name, m, at, mcr) for k, (s, (m, at, mcr)) in enumerate(zip(column.segments,
+                                                                                                   d.segments)))
+    return CaseCriticalMoment(load_factor=d.load_factor, kind=res.kinds[0], senses=d.senses,
+                              chords=CHORDS if curved else 0, segments=segs, converged=bool(res.converged),
+                              message=res.message)
