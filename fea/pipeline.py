@@ -21,6 +21,7 @@ from __future__ import annotations
 from dataclasses import dataclass, replace
 from typing import Any, Callable, Mapping
 
+from .batch.reliability_input import parse_reliability
 from .io.case import TableParser
 from .io.case import load_case as _load_case
 from .io.case import parse_case as _parse_case
@@ -142,6 +143,7 @@ CASE_TABLES: Mapping[str, TableParser] = {
     **{name: parser for a in ANALYSES for name, parser in a.tables.items()},
     "study": parse_study,
     "record": parse_record,
+    "reliability": parse_reliability,  # read by `stanchion reliability`; parsed (checked) and ignored by check
 }
 
 

@@ -50,9 +50,12 @@ LAYERS: list[tuple[str, tuple[str, ...]]] = [
     ("design", ("fea/design/*",)),
     ("study", ("fea/study/*",)),
     ("io", ("fea/io/*",)),
+    # the case-file input of fea/batch/ ([reliability], key paths, laws): below the pipeline, which lists the table
+    ("batch input", ("fea/batch/keys.py", "fea/batch/distributions.py", "fea/batch/reliability_input.py")),
     ("plot", ("fea/plot/*",)),
     ("report", ("fea/report/*",)),
     ("pipeline", ("fea/pipeline.py",)),
+    ("batch", ("fea/batch/*",)),
     ("explore", ("fea/explore/*",)),
     ("cli", ("fea/cli/*", "fea/__init__.py", "fea/__main__.py")),
 ]

@@ -18,7 +18,7 @@ import sys
 
 from ..cautions import CAUTION
 from ..errors import FeaError
-from . import bounds, brace, check, explore, init, report, sensitivity, size, sweep
+from . import batch, bounds, brace, check, explore, init, reliability, report, sensitivity, size, sweep
 from .common import EXIT_BAD_INPUT, EXIT_BROKEN_PIPE, EXIT_FAILED_CHECK, EXIT_INTERNAL, EXIT_OK, Parser
 
 __all__ = ["main", "build_parser", "SUBCOMMANDS", "EXIT_OK", "EXIT_FAILED_CHECK", "EXIT_BAD_INPUT", "EXIT_INTERNAL"]
@@ -35,6 +35,8 @@ SUBCOMMANDS = (
     sensitivity,
     bounds,
     explore,
+    batch,
+    reliability,
 )
 
 
