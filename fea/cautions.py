@@ -10,8 +10,8 @@ LIMITATIONS = (
     "EN 1993-1-1 (6.3.3 and a second-order analysis with member imperfections) and AISC 360 (direct analysis, "
     "H1.1) only, for doubly symmetric I and hollow sections given by shape in two planes, classes 1 to 3 "
     "(compact for AISC 360), with M_cr from the thin-walled analysis where they may buckle laterally-torsionally; "
-    "any other member with bending is not verified. No local buckling: the axial checks take the gross section, "
-    "and a class 4 (slender) section is not verified with bending.",
+    "any other member with bending is not verified. No local buckling: the checks take the gross section, so an "
+    "I, channel or hollow section slender in compression (EN 1993-1-1 class 4, AISC 360 slender) is not verified.",
     "Restraints are taken as given: their adequacy (strength, stiffness, connection detail) is not checked.",
     "All axial load is carried down the column to its base.",
 )

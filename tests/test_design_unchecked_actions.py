@@ -79,3 +79,46 @@ def test_bending_is_never_passed_on_the_axial_check(load, words):
 def test_zero_eccentricity_is_no_bending():
     d = design(ANGLE.format(load='eccentricity = "0 mm"', angle='angle_load = "concentric"'))
     assert d.verdict == "passes"
+
+
+RHS = """
+title = "Square hollow strut (invented demo)"
+[material]
+E = "210 GPa"
+fy = "355 MPa"
+[[segment]]
+length = "2.0 m"
+section = {{ shape = "rectangular_hollow", b = "300 mm", h = "300 mm", t = "{t}" }}
+[[restraint]]
+at = "base"
+lateral = "rigid"
+[[restraint]]
+at = "top"
+lateral = "rigid"
+[[load]]
+at = "top"
+axial = "100 kN"
+[design]
+{design}
+"""
+
+
+@pytest.mark.parametrize("table, words", [
+    ('standard = "EN 1993-1-1"\ncurve = "a"', "EN 1993-1-1 Table 5.2"),
+    ('standard = "AISC 360"', "AISC 360 Table B4.1"),
+    ('standard = "AS 4100"\nalpha_b = -0.5', "not AS 4100's own limits"),
+])
+def test_slender_walls_are_not_verified_on_the_gross_section(table, words):
+    # a 300 x 3 mm square tube in S355: c/t = (300 - 9)/3 = 97 against the EN class 3 limit 42 epsilon = 34.2
+    # (EN 1993-1-1 Table 5.2, internal part in compression, from memory) and the AISC slender limit
+    # 1.40 sqrt(E/Fy) = 34.0 (AISC 360 Table B4.1a, from memory)
+    d = design(RHS.format(t="3 mm", design=table))
+    assert d.passed and d.verdict == "not verified"
+    assert any("slender in compression" in u and words in u for u in d.unchecked)
+
+
+def test_stocky_walls_pass():
+    # 300 x 12.5 mm: c/t = (300 - 37.5)/12.5 = 21 < 33 epsilon = 26.9 (EN Table 5.2 class 1, from memory)
+    d = design(RHS.format(t="12.5 mm", design='standard = "EN 1993-1-1"\ncurve = "a"'))
+    assert d.verdict == "passes"
+    assert not d.unchecked

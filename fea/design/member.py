@@ -11,7 +11,7 @@ from __future__ import annotations
 from dataclasses import replace
 from typing import TYPE_CHECKING, Sequence
 
-from ..errors import CaseError
+from ..errors import CaseError, ModelError
 from ..model import Column
 from ..model.case import Case
 from ..results import BucklingResult
@@ -104,7 +104,7 @@ def design_of_case(case: Case, results: Sequence[BucklingResult], spec: DesignSp
             f"segment {i + 1} ('{case.segments[i].name}'): a single angle loaded at its centroid "
             f"(angle_load = \"concentric\"): {ANGLE_ROUTE}" for i in angles))
     unchecked = (unchecked_modes(case, forces, covered) + ((() if checked else offset_restraints(case)))
-                 + single_angles(case, spec, forces))
+                 + single_angles(case, spec, forces) + local_buckling(case, spec, members, forces))
     if areas is not None or columns is not None:  # sizing candidates: axial checks only
         return replace(result, sway=sway, unchecked=unchecked + bending_unchecked(case))
     bending = bending_of_case(case, spec, results, sway, members, forces, spatial)
@@ -131,6 +131,44 @@ ANGLE_ROUTE = ("checked as a strut loaded at its centroid: flexural buckling abo
                "flexural-torsional buckling from the thin-walled analysis (conservative where AISC 360 E3 "
                "lets a compact angle neglect it, from memory); the standards' own rules for an angle connected "
                "through one leg (EN 1993-1-1 Annex BB.1.2, AISC 360 E5, from memory) are not applied")
+
+
+#: Steel standards whose axial checks take the gross section: a section slender in compression is screened out.
+LOCAL_BUCKLING_SCREEN = ("EN 1993-1-1", "AISC 360", "AS 4100", "BS 5950-1")
+
+
+def local_buckling(case: Case, spec: DesignSpec, members: Sequence[MemberData], forces: Sequence[SegmentForces]
+                   ) -> tuple[str, ...]:
+    """A steel segment in compression whose plates are slender (EN 1993-1-1 class 4 by Table 5.2, or slender by
+    AISC 360 Table B4.1a; AS 4100 and BS 5950-1 screened by the EN table) buckles locally below the gross-section
+    resistance the axial checks use: it is "not verified", one sentence each."""
+    from .classify import aisc360_class, en1993_class
+
+    if spec.standard not in LOCAL_BUCKLING_SCREEN:
+        return ()
+    out = []
+    for i, (info, m, f) in enumerate(zip(case.segments, members, forces)):
+        kind = getattr(type(info.shape), "kind", "") if info.shape is not None else ""
+        if f.compression <= 0 or m.fy is None or kind not in ("i_section", "channel", "rectangular_hollow",
+                                                                "circular_hollow"):
+            continue
+        try:
+            if spec.standard == "AISC 360":
+                c = aisc360_class(info.shape, m.fy, m.E)
+                slender = [(e, e.limits[2]) for e in c.elements if e.ratio > e.limits[2]]
+            else:
+                c = en1993_class(info.shape, m.fy)
+                slender = [(e, e.limits[2]) for e in c.elements if e.section_class == 4]
+        except ModelError:
+            continue
+        if slender:
+            e, limit = slender[0]
+            own = spec.standard in ("EN 1993-1-1", "AISC 360")
+            screen = "" if own else f" (screened by that table, not {spec.standard}'s own limits)"
+            out.append(f"segment {i + 1} ('{info.name}'): its {e.element} is slender in compression (c/t = "
+                       f"{e.ratio:.3g} > {limit:.3g}, {c.source}){screen}: local buckling lowers the resistance "
+                       "below the gross-section value these checks use (an effective section is not computed)")
+    return tuple(out)
 
 
 def single_angles(case: Case, spec: DesignSpec, forces: Sequence[SegmentForces]) -> tuple[str, ...]:
