@@ -279,7 +279,8 @@ def test_plot_writes_figures_of_optional_analyses(tmp_path):
     # An imperfect-column case gets its path, diagram and comparison charts beside the mode shapes;
     # a design case its utilisation chart.
     out = run("check", str(CASES / "crooked_post.toml"), "--plot", str(tmp_path / "cp.png"))
-    assert out.returncode == 0, out.stderr
+    # exit 1: the demo's verdict is "not verified" (its web is slender in compression; see its header)
+    assert out.returncode == 1 and "NOT VERIFIED" in out.stdout, out.stderr
     names = {p.name for p in tmp_path.iterdir()}
     for axis in ("major", "minor"):
         for kind in ("path", "diagrams", "comparison"):
