@@ -11,7 +11,7 @@ from pathlib import Path
 
 from ..errors import FeaError
 from .common import EXIT_FAILED_CHECK, EXIT_OK, units_argument
-from .outputs import OutputPlan, add_no_clobber, figure_writer
+from .outputs import OutputPlan, add_no_clobber, check_plot, figure_writer
 
 NAME = "check"
 HELP = "analyse a case file and print a summary"
@@ -41,9 +41,7 @@ def run(args: argparse.Namespace) -> int:
     case = load_case(args.case)
     if args.modes is not None and not 1 <= args.modes <= 50:
         raise FeaError(f"--modes: expected a whole number from 1 to 50, got {args.modes}")
-    for f in args.plot:
-        if Path(f).suffix.lower() not in (".png", ".svg", ".pdf"):
-            raise FeaError(f"--plot: {f!r} has no known extension: expected .png, .svg or .pdf")
+    check_plot(args)
     plan = OutputPlan([args.case], no_clobber=args.no_clobber)
     if args.json and args.json != "-":
         plan.check(args.json, "--json")

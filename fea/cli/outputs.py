@@ -16,7 +16,17 @@ from pathlib import Path
 
 from ..errors import FeaError
 
-__all__ = ["OutputPlan", "add_no_clobber", "figure_writer"]
+__all__ = ["OutputPlan", "add_no_clobber", "figure_writer", "check_plot", "PLOT_SUFFIXES"]
+
+#: The figure formats `--plot` writes.
+PLOT_SUFFIXES = (".png", ".svg", ".pdf")
+
+
+def check_plot(args: argparse.Namespace) -> None:
+    """Every `--plot FILE` of ``args`` names a figure format (before anything is computed)."""
+    for f in getattr(args, "plot", None) or []:
+        if Path(f).suffix.lower() not in PLOT_SUFFIXES:
+            raise FeaError(f"--plot: {f!r} has no known extension: expected .png, .svg or .pdf")
 
 
 def add_no_clobber(p: argparse.ArgumentParser) -> None:

@@ -21,7 +21,7 @@ from pathlib import Path
 from ..errors import FeaError
 from .batch import add_execution_arguments, execution_of
 from .common import EXIT_FAILED_CHECK, EXIT_OK
-from .outputs import OutputPlan, add_no_clobber, figure_writer
+from .outputs import OutputPlan, add_no_clobber, check_plot, figure_writer
 
 NAME = "reliability"
 HELP = "Monte Carlo strength of an imperfect column: samples of its [reliability] variables, pf and beta"
@@ -77,9 +77,7 @@ def run(args: argparse.Namespace) -> int:
     execution = execution_of(args)
     case = load_case(args.case)
     spec = _spec(args, case)
-    for f in args.plot:
-        if Path(f).suffix.lower() not in (".png", ".svg", ".pdf"):
-            raise FeaError(f"--plot: {f!r} has no known extension: expected .png, .svg or .pdf")
+    check_plot(args)
     plan = OutputPlan([args.case], no_clobber=args.no_clobber)
     if args.json and args.json != "-":
         plan.check(args.json, "--json")

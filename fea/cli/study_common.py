@@ -12,12 +12,11 @@ import argparse
 import json
 import sys
 import time
-from pathlib import Path
 from typing import TYPE_CHECKING, Callable
 
 from ..errors import FeaError
 from .common import EXIT_FAILED_CHECK, EXIT_OK
-from .outputs import OutputPlan, add_no_clobber, figure_writer
+from .outputs import OutputPlan, add_no_clobber, check_plot, figure_writer
 
 if TYPE_CHECKING:
     from ..model.case import Case
@@ -87,12 +86,6 @@ def add_common(p: argparse.ArgumentParser, csv: bool = False, plot: bool = False
         p.add_argument("--plot", metavar="FILE", action="append", default=[],
                        help="draw the chart to FILE (.png, .svg or .pdf); may be repeated")
     add_no_clobber(p)
-
-
-def check_plot(args: argparse.Namespace) -> None:
-    for f in getattr(args, "plot", None) or []:
-        if Path(f).suffix.lower() not in (".png", ".svg", ".pdf"):
-            raise FeaError(f"--plot: {f!r} has no known extension: expected .png, .svg or .pdf")
 
 
 def plan_outputs(args: argparse.Namespace) -> OutputPlan:

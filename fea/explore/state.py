@@ -189,16 +189,7 @@ class Explorer:
     # -- cases ------------------------------------------------------------------------------------------------
     def case_for(self, overrides: Overrides) -> Case:
         """The case with ``overrides`` applied (cached); raises the case file's error for a bad combination."""
-        hit = _cached(self._cases, overrides)
-        if hit is None:
-            try:
-                hit = self._build(overrides)
-            except FeaError as exc:
-                hit = exc
-            _store(self._cases, overrides, hit)
-        if isinstance(hit, FeaError):
-            raise hit
-        return hit
+        return _memo(self._cases, overrides, lambda: self._build(overrides))
 
     def _build(self, overrides: Overrides) -> Case:
         springs = [(parse_key(k), v) for k, v in overrides if k != BOW_KEY and parse_key(k).is_stiffness]
@@ -219,21 +210,10 @@ class Explorer:
 
     # -- results ----------------------------------------------------------------------------------------------
     def _solve(self, overrides: Overrides, slow: bool) -> CaseResults:
-        key = (overrides, slow)
-        hit = _cached(self._solved, key)
-        if hit is None and not slow:
-            hit = _cached(self._solved, (overrides, True))  # a full result holds everything a quick one does
-        if hit is None:
-            try:
-                case = self.case_for(overrides)
-                skip = () if slow else SLOW + (("design",) if self.uses_spatial else ())
-                hit = run_case(case, skip=skip)
-            except FeaError as exc:
-                hit = exc
-            _store(self._solved, key, hit)
-        if isinstance(hit, FeaError):
-            raise hit
-        return hit
+        if not slow and (overrides, True) in self._solved:
+            slow = True  # a full result holds everything a quick one does
+        skip = () if slow else SLOW + (("design",) if self.uses_spatial else ())
+        return _memo(self._solved, (overrides, slow), lambda: run_case(self.case_for(overrides), skip=skip))
 
     def full(self, overrides: Overrides | None = None, rev: int | None = None) -> Outcome:
         """Every analysis, as ``stanchion check`` runs it (the step when a slider comes to rest)."""
@@ -361,6 +341,20 @@ class Explorer:
 
 def _same(a: float, b: float) -> bool:
     return a == b or (math.isfinite(a) and math.isfinite(b) and abs(a - b) <= 1e-12 * max(abs(a), abs(b)))
+
+
+def _memo(cache: OrderedDict, key, make) -> Any:
+    """``cache[key]``, or ``make()`` stored there; an input error is stored and raised again like a result."""
+    hit = _cached(cache, key)
+    if hit is None:
+        try:
+            hit = make()
+        except FeaError as exc:
+            hit = exc
+        _store(cache, key, hit)
+    if isinstance(hit, FeaError):
+        raise hit
+    return hit
 
 
 def _cached(cache: OrderedDict, key) -> Any:

@@ -30,6 +30,7 @@ from ..model import STATION_TOL, Column
 from ..plot.column import band_profile, merged_restraints, point_load_groups
 from ..plot.labels import Label, spread
 from ..plot.style import SPRING_LEN
+from ..plot.symbols import zigzag_outline
 from ..plot.text import PlotUnits, dist_text, format_number, found_text, lean_text, load_text, spring_text
 from ..results import BucklingResult
 
@@ -98,21 +99,10 @@ def _triangle(p: _Panel, h: float, tip: float, s: float = S) -> str:
 
 
 def _zigzag(p: _Panel, h: float, tip: float, s: float = S) -> str:
-    L, lead, amp, n = SPRING_LEN * s, 3.0 * s, 3.2 * s, 6
-    x0 = tip - L
-    xs, ys = [x0, x0 + lead], [0.0, 0.0]
-    span = L - 2 * lead
-    for i in range(n):
-        xs.append(x0 + lead + span * (i + 0.5) / n)
-        ys.append(amp if i % 2 == 0 else -amp)
-    xs += [tip - lead, tip]
-    ys += [0.0, 0.0]
+    xs, ys, _, strokes = zigzag_outline(tip, s)
     out = [_line([p.at(x, h, y) for x, y in zip(xs, ys)], width=1.0, extra=' stroke-linejoin="miter"')]
-    hh = 5.5 * s
-    out.append(_line([p.at(x0, h, -hh), p.at(x0, h, hh)], width=1.4))
-    for k in range(3):
-        yy = -hh + (k + 0.5) * 2 * hh / 3
-        out.append(_line([p.at(x0, h, yy + 1.2 * s), p.at(x0 - 2.5 * s, h, yy - 1.2 * s)], width=0.7))
+    out += [_line([p.at(a, h, b), p.at(c, h, d)], width=1.4 if k == 0 else 0.7)
+            for k, ((a, b), (c, d)) in enumerate(strokes)]
     return "".join(out)
 
 

@@ -86,8 +86,9 @@ def triangle(ax, x, y, tip=0.0, scale=1.0, color=INK) -> float:
     return tip - w
 
 
-def zigzag(ax, x, y, tip=0.0, scale=1.0, color=INK) -> float:
-    """Lateral spring: wall, zig-zag, lead to ``tip``; returns the wall position."""
+def zigzag_outline(tip: float = 0.0, scale: float = 1.0) -> tuple[list[float], list[float], float, list]:
+    """The lateral spring's geometry in pt, from the wall to ``tip``: the zig-zag's points (xs, ys), the wall's
+    position, and its hatch strokes ((x0, y0), (x1, y1)); shared by the figures and the explorer's SVG."""
     L = SPRING_LEN * scale
     x0 = tip - L
     lead = 3.0 * scale
@@ -101,13 +102,21 @@ def zigzag(ax, x, y, tip=0.0, scale=1.0, color=INK) -> float:
         ys.append(amp if i % 2 == 0 else -amp)
     xs += [tip - lead, tip]
     ys += [0.0, 0.0]
-    tr = pt(ax, x, y)
-    line(ax, tr, xs, ys, color=color, lw=0.9, zorder=6, solid_joinstyle="miter")
     h = 5.5 * scale
-    line(ax, tr, [x0, x0], [-h, h], color=color, lw=1.2, zorder=6)
+    strokes = [((x0, -h), (x0, h))]
     for k in range(3):
         yy = -h + (k + 0.5) * 2 * h / 3
-        line(ax, tr, [x0, x0 - 2.5 * scale], [yy + 1.2 * scale, yy - 1.2 * scale], color=color, lw=0.6, zorder=6)
+        strokes.append(((x0, yy + 1.2 * scale), (x0 - 2.5 * scale, yy - 1.2 * scale)))
+    return xs, ys, x0, strokes
+
+
+def zigzag(ax, x, y, tip=0.0, scale=1.0, color=INK) -> float:
+    """Lateral spring: wall, zig-zag, lead to ``tip``; returns the wall position."""
+    xs, ys, x0, strokes = zigzag_outline(tip, scale)
+    tr = pt(ax, x, y)
+    line(ax, tr, xs, ys, color=color, lw=0.9, zorder=6, solid_joinstyle="miter")
+    for k, ((a, b), (c, d)) in enumerate(strokes):
+        line(ax, tr, [a, c], [b, d], color=color, lw=1.2 if k == 0 else 0.6, zorder=6)
     return x0 - 2.5 * scale
 
 

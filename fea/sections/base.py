@@ -9,6 +9,7 @@ are stated in :mod:`fea.sections`.
 from __future__ import annotations
 
 import abc
+import functools
 import math
 import numbers
 from dataclasses import dataclass
@@ -336,13 +337,17 @@ class Shape(abc.ABC):
 
     # -- public -------------------------------------------------------------
     def properties(self) -> SectionProperties:
-        """All geometric properties of the section.
+        """All geometric properties of the section (computed once per distinct shape: shapes are immutable and
+        compare by their dimensions, and the result is immutable).
 
         Returns
         -------
         SectionProperties
             See :class:`SectionProperties` for the fields and conventions.
         """
+        return _properties_of(self)
+
+    def _properties(self) -> SectionProperties:
         A, yc, zc, Iyy, Izz, Iyz, I1, I2, theta = self._principal()
         _, _, qmin, qmax = self._frame("major").extent()
         _, _, pmin, pmax = self._frame("minor").extent()
@@ -451,3 +456,10 @@ class Shape(abc.ABC):
                 As.append(web[0])
                 ss.append(math.nan)
         return FibreSet(axis, np.array(ys), np.array(xs), np.array(As), np.array(ss, dtype=float))
+
+
+@functools.lru_cache(maxsize=512)
+def _properties_of(shape: Shape) -> SectionProperties:
+    """:meth:`Shape.properties`, remembered per shape (the design check, the imperfect-column analysis and the
+    design actions each ask for the same section's properties)."""
+    return shape._properties()
